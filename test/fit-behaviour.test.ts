@@ -68,7 +68,7 @@ describe('interval coverage (statistical check on synthetic series with known tr
     floor: { theta0: 65, tau: 4 * YEAR, thetaInf: 30 },
     hyperbolic: { theta0: 60, tau: 5 * YEAR, b: 0.7 },
   };
-  it.each(['exponential', 'floor', 'hyperbolic'] as const)('95 %% interval for τ covers the truth in 92–98 %% of series (%s)', (model) => {
+  it.each(['exponential', 'floor', 'hyperbolic'] as const)('%s: the 95 per cent interval for τ covers the truth in 92–98 per cent of series', (model) => {
     const truth = truths[model];
     const trials = 1000;
     let covered = 0;
