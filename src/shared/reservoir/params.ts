@@ -105,6 +105,8 @@ function asObject(value: unknown, field: string | undefined, fail: Fail): Record
 
 function rejectUnknownKeys(obj: Record<string, unknown>, allowed: readonly string[], prefix: string, fail: Fail): void {
   for (const key of Object.keys(obj)) {
+    // JSON has no comments: a top-level free-text "note" documents the file (e.g. where the values came from).
+    if (prefix === '' && key === 'note' && typeof obj[key] === 'string') continue;
     if (!allowed.includes(key)) fail(`unknown key; expected one of ${allowed.join(', ')}`, prefix + key);
   }
 }

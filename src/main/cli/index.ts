@@ -1,0 +1,91 @@
+/**
+ * The `tauwell` command line: a thin adapter from arguments and CSV/JSON files to the engine in
+ * src/shared. Exit status 0 on success, 2 on bad input (one line on stderr naming the file, line
+ * and field), 1 on an internal error (one line; the stack only with TAUWELL_DEBUG=1).
+ */
+import { InputError } from '../../shared/errors.js';
+import { commandHelp, optionLines, parseArgs, type CommandSpec, type ParsedArgs } from './args.js';
+import { FIT_COMMAND, runFit } from './commands/fit.js';
+import { FORECAST_COMMAND, runForecast } from './commands/forecast.js';
+import { THEORY_COMMAND, runTheory } from './commands/theory.js';
+import { WATER_COMMAND, runWater } from './commands/water.js';
+import { resolveIo, type CliIo } from './io.js';
+import { packageVersion } from './version.js';
+
+export type { CliIo } from './io.js';
+
+interface Command {
+  spec: CommandSpec;
+  run(args: ParsedArgs, io: CliIo): number | Promise<number>;
+}
+
+const COMMANDS: readonly Command[] = [
+  { spec: FIT_COMMAND, run: runFit },
+  { spec: FORECAST_COMMAND, run: runForecast },
+  { spec: THEORY_COMMAND, run: runTheory },
+  { spec: WATER_COMMAND, run: runWater },
+];
+
+export async function main(argv: string[], io: Partial<CliIo> = {}): Promise<number> {
+  const out = resolveIo(io);
+  try {
+    return await dispatch(argv, out);
+  } catch (e) {
+    if (e instanceof InputError) {
+      out.stderr.write(`tauwell: ${oneLine(e.message)}\n`);
+      return 2;
+    }
+    const message = e instanceof Error ? e.message : String(e);
+    out.stderr.write(`tauwell: internal error: ${oneLine(message)}\n`);
+    if (out.env.TAUWELL_DEBUG === '1' && e instanceof Error && e.stack !== undefined) out.stderr.write(`${e.stack}\n`);
+    return 1;
+  }
+}
+
+async function dispatch(argv: readonly string[], io: CliIo): Promise<number> {
+  const [first, ...rest] = argv;
+  if (first === '--version' || first === '-V') {
+    io.stdout.write(`tauwell ${packageVersion()}\n`);
+    return 0;
+  }
+  if (first === '--help' || first === '-h' || first === 'help') {
+    const topic = first === 'help' ? COMMANDS.find((c) => c.spec.name === rest[0]) : undefined;
+    io.stdout.write(topic === undefined ? mainHelp() : commandHelp(topic.spec));
+    return 0;
+  }
+  if (first === undefined) throw new InputError('missing command; one of fit, forecast, theory, water (see `tauwell --help`)');
+  const command = COMMANDS.find((c) => c.spec.name === first);
+  if (command === undefined) {
+    throw new InputError(`unknown command ${JSON.stringify(first)}; one of ${COMMANDS.map((c) => c.spec.name).join(', ')} (see \`tauwell --help\`)`);
+  }
+  const args = parseArgs(command.spec, rest);
+  if (args.flag('help')) {
+    io.stdout.write(commandHelp(command.spec));
+    return 0;
+  }
+  return await command.run(args, io);
+}
+
+/** Overview and every command's options with their units. */
+function mainHelp(): string {
+  const width = Math.max(...COMMANDS.map((c) => c.spec.name.length)) + 4;
+  const lines = [
+    `tauwell ${packageVersion()} — thermal-decline fitting and forecasting for geothermal heat-extraction reservoirs`,
+    '',
+    'Usage: tauwell <command> [options]      tauwell <command> --help      tauwell --version',
+    '',
+    'Commands:',
+    ...COMMANDS.map((c) => `  ${c.spec.name.padEnd(width)}${c.spec.summary}`),
+    '',
+    'Output: tables with SI and everyday units (years, °C, GWh/TJ, MW); --json prints SI only.',
+    'Exit status: 0 success, 2 bad input (one line naming the file, line and field), 1 internal error.',
+  ];
+  for (const c of COMMANDS) {
+    lines.push('', c.spec.usage, ...optionLines(c.spec.options));
+  }
+  return lines.join('\n') + '\n';
+}
+
+function oneLine(text: string): string {
+  return text.replace(/\s*[\r\n]+\s*/g, ' ').trim();
+}
