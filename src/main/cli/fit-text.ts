@@ -24,7 +24,7 @@ export function fitLines(fit: FitResult | AutoFitResult, referenceC: number | un
   const state = fit.converged ? 'converged' : `NOT CONVERGED (${fit.status})`;
   lines.push(`  model: ${fit.model} — ${state}${'candidates' in fit ? ', chosen by lowest AICc' : ''}`);
   if (fit.message !== '') lines.push(`  note: ${fit.message}`);
-  lines.push(`  points: ${fit.n} fitted, ${fit.nExcluded} excluded (flagged or zero weight)`);
+  lines.push(`  points: ${fit.n} fitted, ${fit.nExcluded} left out (excluded rows or zero weight)`);
   if (Object.keys(fit.parameters).length > 0) {
     const rows = parameterNamesOf(fit.model).map((name) => parameterRow(fit, name, referenceC));
     lines.push('', ...renderTable(['parameter', 'value', 'std. error', '95 % interval', 'everyday units'], rows, ['left', 'right', 'right', 'left', 'left']));

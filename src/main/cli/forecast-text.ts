@@ -1,6 +1,7 @@
 /** The human-readable form of a forecast and a recharge estimate, with the cautions the product shows. */
 import type { ForecastResult } from '../../shared/forecast/forecast.js';
 import type { RechargeResult } from '../../shared/forecast/recharge.js';
+import type { DeclineModel } from '../../shared/fit/types.js';
 import { JULIAN_YEAR_S } from '../../shared/units.js';
 import type { SeriesGroup } from './csv-series.js';
 import { MISSING, celsius, dateAfter, heat, megawatts, num, withUnit, years } from './display.js';
@@ -74,12 +75,13 @@ function bandLines(f: ForecastResult, referenceC: number | undefined): string[] 
   return ['  θ forecast band:', ...renderTable(['time after zero', 'P90 (low)', 'P50', 'P10 (high)'], rows, ['right', 'right', 'right', 'right'], '    ')];
 }
 
-export function rechargeLines(r: RechargeResult, reservoir: ReservoirInput): string[] {
+export function rechargeLines(r: RechargeResult, reservoir: ReservoirInput, model: DeclineModel): string[] {
   if (r.status !== 'ok') return [`  recharge: not estimated — ${r.message}`];
   const ci = (c: readonly [number, number], f: (v: number) => string): string => `${f(c[0])} … ${f(c[1])}`;
   const yr = (s: number): string => num(s / JULIAN_YEAR_S, 4);
   const rows = [
-    ['fitted τ', `${years(r.tauFitS.value, 5)}`, `${ci(r.tauFitS.ci95, yr)} yr`],
+    // Only the exponential has one time constant; the others are compared through their effective τ = −θ/(dθ/dt) now.
+    [model === 'exponential' ? 'fitted τ' : `effective τ now (${model} model)`, `${years(r.tauFitS.value, 5)}`, `${ci(r.tauFitS.ci95, yr)} yr`],
     [`theoretical τ at ${num(reservoir.meanFlowKgPerS)} kg/s`, years(r.tauTheoryS, 5), ''],
     ['ratio R = τfit/τtheory', num(r.ratio.value, 4), ci(r.ratio.ci95, (v) => num(v, 4))],
     ['recharge fraction f', num(r.rechargeFraction.value, 4), ci(r.rechargeFraction.ci95, (v) => num(v, 4))],

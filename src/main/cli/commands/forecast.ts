@@ -170,7 +170,7 @@ export function runForecast(args: ParsedArgs, io: CliIo): number {
     lines.push('', groupHeading(r.group.group, 'Forecast'), `  ${timeOriginText(csv, r.group, timeUnit)}`);
     lines.push(...fitLines(r.fit, inputs.referenceC), '');
     lines.push(...forecastLines(r, inputs.referenceC, inputs.plannedFlowKgPerS));
-    if (r.recharge !== null && inputs.reservoir !== null) lines.push('', ...rechargeLines(r.recharge, inputs.reservoir));
+    if (r.recharge !== null && inputs.reservoir !== null) lines.push('', ...rechargeLines(r.recharge, inputs.reservoir, r.fit.model));
   }
   lines.push('', PERCENTILE_NOTE, '', ...CAUTIONS);
   io.stdout.write(lines.join('\n') + '\n');
