@@ -9,7 +9,7 @@ import { accumulate, newNormalEquations, type FitData } from './kernels.js';
 import { invertSymmetric } from './linalg.js';
 import { B_LOWER_BOUND, DEFAULT_LM_OPTIONS, levenbergMarquardt, type LmOptions } from './lm.js';
 import { declineValue } from './models.js';
-import { startingValues } from './start.js';
+import { startingValues, subsample } from './start.js';
 import {
   DECLINE_MODELS, basisUnit, parameterNamesOf,
   type AutoFitResult, type Basis, type DeclineModel, type DeclineParameters, type FitResult, type FitStatus, type ParameterEstimate, type ParameterName,
@@ -30,6 +30,10 @@ export interface DeclineSeries {
 export interface FitOptions {
   lm?: Partial<LmOptions>;
 }
+
+/** Above this many points a subsample pre-fit precedes the full-data polish. */
+const PRE_FIT_THRESHOLD = 50_000;
+const PRE_FIT_POINTS = 20_000;
 
 interface Prepared {
   data: FitData;
@@ -98,7 +102,19 @@ function fitPrepared(prep: Prepared, basis: Basis, model: DeclineModel, options:
   if (start.problem === 'no-decline') {
     return failure(prep, basis, model, 'no-decline', 'θ does not decline over the fit window (its least-squares slope is not negative); nothing to fit');
   }
-  const lm = levenbergMarquardt(model, prep.data, start.q, { ...DEFAULT_LM_OPTIONS, ...options.lm });
+  const lmOptions = { ...DEFAULT_LM_OPTIONS, ...options.lm };
+  // On a long log, most iterations are spent getting near the optimum: do that on a stride subsample,
+  // then polish on every point (the result is the full-data optimum; only the route is cheaper).
+  let q0 = start.q;
+  let preIterations = 0;
+  if (n > PRE_FIT_THRESHOLD) {
+    const pre = levenbergMarquardt(model, subsample(prep.data, PRE_FIT_POINTS), start.q, lmOptions);
+    if (pre.status === 'converged') {
+      q0 = pre.q;
+      preIterations = pre.iterations;
+    }
+  }
+  const lm = levenbergMarquardt(model, prep.data, q0, lmOptions);
   const q = lm.q;
   const estimates = unscale(model, q, prep.scale);
 
@@ -151,7 +167,7 @@ function fitPrepared(prep: Prepared, basis: Basis, model: DeclineModel, options:
     parameterNames: names, estimates, parameters, covariance, correlation,
     x: prep.xSI, residuals,
     sse: ne.sse, rmseK: Math.sqrt(ne.sse / sw), r2: 1 - ne.sse / sst, aicc,
-    iterations: lm.iterations, evaluations: lm.evaluations + 1,
+    iterations: preIterations + lm.iterations, evaluations: lm.evaluations + 1,
     xRange: range(prep.xSI),
   };
 }

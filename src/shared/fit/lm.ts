@@ -25,6 +25,9 @@ export interface LmOutcome {
   status: 'converged' | 'max-iterations' | 'at-bound';
 }
 
+/** Relative size of SSE changes that double-precision sums over many residuals cannot resolve. */
+const ROUNDING_LEVEL = 1e-14;
+
 /** b of the hyperbolic model is kept above this; reaching it means the data are exponential. */
 export const B_LOWER_BOUND = 1e-7;
 
@@ -79,6 +82,11 @@ export function levenbergMarquardt(model: DeclineModel, data: FitData, q0: Float
       predicted += step[i] * (lambda * Math.max(ne.jtj[i * p + i], 1e-12 * maxDiag) * step[i] + ne.jtr[i]);
     }
     const actual = ne.sse - trial.sse;
+    if (Number.isFinite(trial.sse) && predicted >= 0 && predicted <= ROUNDING_LEVEL * ne.sse) {
+      // The gain the quadratic model promises is below what a sum over n residuals can resolve, so the
+      // SSE comparison is rounding noise: take this last Gauss–Newton step on the model's word and stop.
+      return { q: next, ne: trial, iterations: iteration, evaluations, status: 'converged' };
+    }
     if (actual > 0 && Number.isFinite(trial.sse)) {
       const relative = actual / ne.sse;
       q = next;

@@ -105,9 +105,12 @@ export function startingValues(model: DeclineModel, data: FitData, maxPoints = 4
     const [theta0, thetaInf] = project(model, tau, 0, sample).linear;
     return { q: model === 'exponential' ? Float64Array.of(theta0, tau) : Float64Array.of(theta0, tau, thetaInf) };
   }
-  let bestB = B_GRID[0], bestLog = 0, bestSsr = Infinity;
+  // The hyperbolic's initial time constant is shorter than the exponential's (its decline slows down),
+  // so the exponential optimum bounds the τ scan from above: a narrow window per trial b suffices.
+  const { log10Tau: expLog } = bestLogTau((lt) => project('exponential', Math.pow(10, lt), 0, sample).ssr);
+  let bestB = B_GRID[0], bestLog = expLog, bestSsr = Infinity;
   for (const b of B_GRID) {
-    for (const lt of LOG10_TAU_GRID) {
+    for (let lt = expLog - 1.5; lt <= expLog + 0.26; lt += 0.25) {
       const s = project(model, Math.pow(10, lt), b, sample).ssr;
       if (s < bestSsr) { bestSsr = s; bestB = b; bestLog = lt; }
     }

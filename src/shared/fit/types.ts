@@ -64,8 +64,9 @@ export interface FitResult {
   r2: number;
   /** Small-sample Akaike criterion with k = p + 1 (the variance counts). */
   aicc: number;
+  /** Levenberg–Marquardt iterations, including those of a subsample pre-fit on long logs. */
   iterations: number;
-  /** Passes over the data (each computes residuals and the normal equations). */
+  /** Passes over the full data (each computes residuals and the normal equations). */
   evaluations: number;
   /** Smallest and largest basis value that entered the fit. */
   xRange: [number, number];
