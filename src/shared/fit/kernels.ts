@@ -82,6 +82,14 @@ function accumulateFloor(q: Float64Array, { xs, ys, ws }: FitData, out: NormalEq
     g0 += w * j0 * r; g1 += w * j1 * r; g2 += w * j2 * r;
     sse += w * r * r;
   }
+  store3(out, a00, a01, a02, a11, a12, a22, g0, g1, g2, sse);
+}
+
+/** Writes the symmetric 3 × 3 normal equations accumulated by a loop (kept out of the loops themselves). */
+function store3(
+  out: NormalEquations, a00: number, a01: number, a02: number, a11: number, a12: number, a22: number,
+  g0: number, g1: number, g2: number, sse: number,
+): void {
   const m = out.jtj;
   m[0] = a00; m[1] = a01; m[2] = a02;
   m[3] = a01; m[4] = a11; m[5] = a12;
@@ -125,10 +133,5 @@ function accumulateHyperbolic(q: Float64Array, { xs, ys, ws }: FitData, out: Nor
     g0 += w * j0 * r; g1 += w * j1 * r; g2 += w * j2 * r;
     sse += w * r * r;
   }
-  const m = out.jtj;
-  m[0] = a00; m[1] = a01; m[2] = a02;
-  m[3] = a01; m[4] = a11; m[5] = a12;
-  m[6] = a02; m[7] = a12; m[8] = a22;
-  out.jtr[0] = g0; out.jtr[1] = g1; out.jtr[2] = g2;
-  out.sse = sse;
+  store3(out, a00, a01, a02, a11, a12, a22, g0, g1, g2, sse);
 }
