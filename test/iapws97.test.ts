@@ -172,3 +172,22 @@ describe('IAPWS-IF97 region 1 against facts of the trade', () => {
     expect(at200.specificHeatJPerKgK / 4186 - 1).toBeGreaterThan(0.05);
   });
 });
+
+describe('density-only path used for logged volume flows', () => {
+  it('reproduces IAPWS-IF97 (2007) Table 5 densities and agrees with the full equation everywhere in region 1', async () => {
+    const { liquidDensityKgPerM3, liquidWater: full } = await import('../src/shared/water/iapws97.js');
+    // Table 5: v = 0.100215168e-2, 0.971180894e-3, 0.120241800e-2 m³/kg.
+    expect(liquidDensityKgPerM3(300, 3e6) * 0.100215168e-2).toBeCloseTo(1, 8);
+    expect(liquidDensityKgPerM3(300, 80e6) * 0.971180894e-3).toBeCloseTo(1, 8);
+    expect(liquidDensityKgPerM3(500, 3e6) * 0.1202418e-2).toBeCloseTo(1, 8);
+    for (let t = 275; t <= 620; t += 15) {
+      for (const p of [3e6, 17e6, 40e6, 99e6]) {
+        let ok = true;
+        try { full(t, p); } catch { ok = false; }
+        if (!ok) continue;
+        expect(Math.abs(liquidDensityKgPerM3(t, p) / full(t, p).densityKgPerM3 - 1)).toBeLessThan(1e-13);
+      }
+    }
+    expect(() => liquidDensityKgPerM3(453.15, 0.5e6)).toThrow(/steam, not liquid/);
+  });
+});

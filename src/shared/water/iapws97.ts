@@ -110,6 +110,35 @@ export function saturationTemperatureK(pressurePa: number): number {
 export function liquidWater(temperatureK: number, pressurePa: number): LiquidWaterProperties {
   const t = requireFinite(temperatureK, 'temperature');
   const p = requirePositive(pressurePa, 'pressure');
+  const ps = checkRegion1(t, p);
+
+  const pi = p / P_STAR_PA;
+  const tau = T_STAR_K / t;
+  const g = gibbsRegion1(pi, tau);
+  const rt = R_J_PER_KG_K * t;
+
+  const specificVolume = (pi * g.gPi * rt) / p;
+  const tauGTau = tau * g.gTau;
+  const piGPi = pi * g.gPi;
+  const cp = -R_J_PER_KG_K * tau * tau * g.gTauTau;
+  const w2 = (rt * g.gPi * g.gPi) / (((g.gPi - tau * g.gPiTau) ** 2) / (tau * tau * g.gTauTau) - g.gPiPi);
+
+  return {
+    temperatureK: t,
+    pressurePa: p,
+    densityKgPerM3: 1 / specificVolume,
+    specificVolumeM3PerKg: specificVolume,
+    specificEnthalpyJPerKg: rt * tauGTau,
+    specificInternalEnergyJPerKg: rt * (tauGTau - piGPi),
+    specificEntropyJPerKgK: R_J_PER_KG_K * (tauGTau - g.g),
+    specificHeatJPerKgK: cp,
+    speedOfSoundMPerS: Math.sqrt(w2),
+    saturationPressurePa: ps,
+  };
+}
+
+/** The validity of region 1 at (T, p), as an InputError naming the field; returns ps(T). */
+function checkRegion1(t: number, p: number): number {
   if (t < REGION1_LIMITS.minTemperatureK * (1 - BOUNDARY_RELATIVE_TOLERANCE)) {
     throw new InputError(
       `water at ${formatCelsius(t)} (${formatKelvin(t)}) is below 0 °C (273.15 K), outside IAPWS-IF97 region 1`,
@@ -135,30 +164,32 @@ export function liquidWater(temperatureK: number, pressurePa: number): LiquidWat
       { field: 'pressure' },
     );
   }
+  return ps;
+}
 
+/**
+ * Density alone, for converting logged volume flows row by row: the same region 1 equation and validity
+ * checks as liquidWater, but only ∂γ/∂π, with the powers built by multiplication (about 20 times faster).
+ */
+export function liquidDensityKgPerM3(temperatureK: number, pressurePa: number): number {
+  const t = requireFinite(temperatureK, 'temperature');
+  const p = requirePositive(pressurePa, 'pressure');
+  checkRegion1(t, p);
   const pi = p / P_STAR_PA;
-  const tau = T_STAR_K / t;
-  const g = gibbsRegion1(pi, tau);
-  const rt = R_J_PER_KG_K * t;
-
-  const specificVolume = (pi * g.gPi * rt) / p;
-  const tauGTau = tau * g.gTau;
-  const piGPi = pi * g.gPi;
-  const cp = -R_J_PER_KG_K * tau * tau * g.gTauTau;
-  const w2 = (rt * g.gPi * g.gPi) / (((g.gPi - tau * g.gPiTau) ** 2) / (tau * tau * g.gTauTau) - g.gPiPi);
-
-  return {
-    temperatureK: t,
-    pressurePa: p,
-    densityKgPerM3: 1 / specificVolume,
-    specificVolumeM3PerKg: specificVolume,
-    specificEnthalpyJPerKg: rt * tauGTau,
-    specificInternalEnergyJPerKg: rt * (tauGTau - piGPi),
-    specificEntropyJPerKgK: R_J_PER_KG_K * (tauGTau - g.g),
-    specificHeatJPerKgK: cp,
-    speedOfSoundMPerS: Math.sqrt(w2),
-    saturationPressurePa: ps,
-  };
+  const a = 7.1 - pi;
+  const b = T_STAR_K / t - 1.222;
+  // a^(i−1) for i = 1..32 and b^j for j = −41..17 (Table 2's exponent ranges).
+  const aPow = new Float64Array(32);
+  aPow[0] = 1;
+  for (let k = 1; k < 32; k++) aPow[k] = aPow[k - 1] * a;
+  const bPow = new Float64Array(59);
+  bPow[41] = 1;
+  for (let k = 1; k <= 17; k++) bPow[41 + k] = bPow[40 + k] * b;
+  const inverse = 1 / b;
+  for (let k = 1; k <= 41; k++) bPow[41 - k] = bPow[42 - k] * inverse;
+  let gPi = 0;
+  for (let k = 8; k < N1.length; k++) gPi -= N1[k] * I1[k] * aPow[I1[k] - 1] * bPow[J1[k] + 41];
+  return p / (pi * gPi * R_J_PER_KG_K * t);
 }
 
 interface GibbsDerivatives {
