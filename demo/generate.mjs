@@ -1,55 +1,25 @@
-// Generates the INVENTED demo field used by `npm run demo` and the README walk-through.
-// "Kettle Ridge" is not a real field: three production wells of an imagined hot-dry-rock system, weekly
-// wellhead readings over twelve years from a seeded lumped model with some recharge, one well that
-// short-circuits (cools faster than its share of rock allows), flow changes, shut-ins and noise.
-//   node demo/generate.mjs        (writes demo/invented-field.csv; deterministic)
-import { writeFileSync } from 'node:fs';
+// Writes the INVENTED demo files — "Kettle Ridge" is not a real field — from the one seeded model in
+// src/shared/demo/invented-field.ts (and the export of invented-export.ts), compiled to dist/ by `npm run build:cli`, so the files, the demo
+// database (`tauwell demo`) and the tests all come from the same code (test/services-demo.test.ts
+// compares the committed files with it):
+//   demo/invented-field.csv              twelve years of weekly readings of KR-1..KR-3
+//   demo/invented-export-with-faults.csv a plant export of the last weeks with planted faults (demo/README.md)
+//
+//   npm run build:cli && node demo/generate.mjs [OUT_DIR]      (deterministic; OUT_DIR defaults to demo/)
+import { existsSync, writeFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 
-const WEEK_S = 7 * 86400;
-const YEAR_S = 365.25 * 86400;
-const CW = 4300; // J/(kg K), roughly IAPWS-IF97 cp near 160 °C
-const T_REF_C = 70; // reinjection temperature, the minimum useful temperature
-
-function mulberry32(seed) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
+const compiled = (name) => new URL(`../dist/shared/demo/${name}.js`, import.meta.url);
+if (!existsSync(fileURLToPath(compiled('invented-export')))) {
+  process.stderr.write('demo/generate.mjs: the model is not compiled yet; run `npm run build:cli` first\n');
+  process.exit(1);
 }
-const rand = mulberry32(20261201);
-const normal = () => Math.sqrt(-2 * Math.log(1 - rand())) * Math.cos(2 * Math.PI * rand());
+const { inventedFieldCsv } = await import(compiled('invented-field').href);
+const { inventedExportWithFaults } = await import(compiled('invented-export').href);
 
-// Heat capacity of each well's swept rock, J/K, and the share of extracted heat replenished.
-const wells = [
-  { name: 'KR-1', thetaStartK: 106, heatCapacityJPerK: 2.3e14, rechargeFraction: 0.15, flows: [[0, 45], [5 * YEAR_S, 58]] },
-  { name: 'KR-2', thetaStartK: 99, heatCapacityJPerK: 2.0e14, rechargeFraction: 0.05, flows: [[0, 50], [7.5 * YEAR_S, 40]] },
-  { name: 'KR-3', thetaStartK: 111, heatCapacityJPerK: 0.9e14, rechargeFraction: 0.0, flows: [[0, 42]] },
-];
-const start = Date.UTC(2014, 0, 6, 9, 0, 0); // a Monday morning, readings taken weekly
-const weeks = 12 * 52;
-
-const rows = ['time,well,production_temp_C,flow_kg_s,injection_temp_C,status'];
-for (const well of wells) {
-  let theta = well.thetaStartK;
-  let shutInLeft = 0;
-  for (let k = 0; k < weeks; k++) {
-    const t = k * WEEK_S;
-    const flow = well.flows.filter(([from]) => t >= from).at(-1)[1];
-    if (shutInLeft === 0 && rand() < 0.012) shutInLeft = 1 + Math.floor(rand() * 3);
-    const producing = shutInLeft === 0;
-    if (!producing) shutInLeft--;
-    // C·dθ/dt = −ṁ·cw·θ·(1 − f) over one week while producing (DOMAIN.md §2 and §7).
-    if (producing && k > 0) theta *= Math.exp((-flow * CW * (1 - well.rechargeFraction) * WEEK_S) / well.heatCapacityJPerK);
-    const time = new Date(start + t * 1000).toISOString().replace('.000Z', 'Z');
-    const measured = producing ? T_REF_C + theta + 0.35 * normal() : T_REF_C + theta - 8 - 4 * rand();
-    const flowLogged = producing ? flow * (1 + 0.01 * normal()) : 0;
-    const inj = T_REF_C + 0.5 * normal();
-    rows.push([time, well.name, measured.toFixed(2), flowLogged.toFixed(1), inj.toFixed(1), producing ? 'producing' : 'shut-in'].join(','));
-  }
-}
-writeFileSync(new URL('./invented-field.csv', import.meta.url), rows.join('\n') + '\n');
-console.log(`wrote ${rows.length - 1} invented readings to demo/invented-field.csv`);
+const outDir = process.argv[2] === undefined ? new URL('./', import.meta.url) : pathToFileURL(resolve(process.argv[2]) + '/');
+const field = inventedFieldCsv();
+writeFileSync(new URL('invented-field.csv', outDir), field);
+writeFileSync(new URL('invented-export-with-faults.csv', outDir), inventedExportWithFaults());
+console.log(`wrote ${field.split('\n').length - 2} invented readings to invented-field.csv and the faulty plant export to invented-export-with-faults.csv in ${fileURLToPath(outDir)}`);

@@ -34,7 +34,9 @@ export function fitLines(fit: FitResult | AutoFitResult, referenceC: number | un
   if ('candidates' in fit && fit.candidates.length > 0) {
     const rows = fit.candidates.map((c) => [
       c.model, c.converged ? 'converged' : c.status, num(c.aicc, 6), withUnit(c.rmseK, 'K', 4),
-      c.parameters.tau === undefined ? MISSING : withUnit(c.parameters.tau.value / JULIAN_YEAR_S, 'yr', 4),
+      c.parameters.tau === undefined ? MISSING
+        : c.basis === 'mass' ? withUnit(c.parameters.tau.value, 'kg', 4) // the characteristic mass, not a time
+          : withUnit(c.parameters.tau.value / JULIAN_YEAR_S, 'yr', 4),
     ]);
     lines.push('', '  candidates (best first):', ...renderTable(['model', 'status', 'AICc', 'RMSE', 'τ'], rows, ['left', 'left', 'right', 'right', 'right'], '    '));
   }

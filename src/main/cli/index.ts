@@ -5,10 +5,18 @@
  */
 import { InputError } from '../../shared/errors.js';
 import { commandHelp, optionLines, parseArgs, type CommandSpec, type ParsedArgs } from './args.js';
+import { ADD_WELL_COMMAND, runAddWell } from './commands/add-well.js';
+import { DEMO_COMMAND, runDemo } from './commands/demo.js';
+import { DELETE_COMMAND, EDIT_COMMAND, runDelete, runEdit } from './commands/edit.js';
+import { EXPORT_COMMAND, exportArgv, runExport } from './commands/export.js';
 import { FIT_COMMAND, runFit } from './commands/fit.js';
 import { FORECAST_COMMAND, runForecast } from './commands/forecast.js';
+import { INIT_COMMAND, runInit } from './commands/init.js';
+import { LOG_COMMAND, runLog } from './commands/log.js';
+import { READINGS_COMMAND, runReadings } from './commands/readings.js';
 import { THEORY_COMMAND, runTheory } from './commands/theory.js';
 import { WATER_COMMAND, runWater } from './commands/water.js';
+import { WELLS_COMMAND, runWells } from './commands/wells.js';
 import { resolveIo, type CliIo } from './io.js';
 import { packageVersion } from './version.js';
 
@@ -17,13 +25,27 @@ export type { CliIo } from './io.js';
 interface Command {
   spec: CommandSpec;
   run(args: ParsedArgs, io: CliIo): number | Promise<number>;
+  /** Rewrites the arguments before parsing, e.g. a leading word into an option (`export readings`). */
+  argv?(rest: readonly string[]): string[];
 }
 
 const COMMANDS: readonly Command[] = [
+  // the engine on files
   { spec: FIT_COMMAND, run: runFit },
   { spec: FORECAST_COMMAND, run: runForecast },
   { spec: THEORY_COMMAND, run: runTheory },
   { spec: WATER_COMMAND, run: runWater },
+  // the field log
+  { spec: INIT_COMMAND, run: runInit },
+  { spec: DEMO_COMMAND, run: runDemo },
+  { spec: ADD_WELL_COMMAND, run: runAddWell },
+  { spec: WELLS_COMMAND, run: runWells },
+  { spec: LOG_COMMAND, run: runLog },
+  { spec: READINGS_COMMAND, run: runReadings },
+  { spec: EDIT_COMMAND, run: runEdit },
+  { spec: DELETE_COMMAND, run: runDelete },
+  { spec: EXPORT_COMMAND, run: runExport, argv: exportArgv },
+  // CSV import: { spec: IMPORT_COMMAND, run: runImport } from './commands/import.js' goes here.
 ];
 
 export async function main(argv: string[], io: Partial<CliIo> = {}): Promise<number> {
@@ -53,12 +75,12 @@ async function dispatch(argv: readonly string[], io: CliIo): Promise<number> {
     io.stdout.write(topic === undefined ? mainHelp() : commandHelp(topic.spec));
     return 0;
   }
-  if (first === undefined) throw new InputError('missing command; one of fit, forecast, theory, water (see `tauwell --help`)');
+  if (first === undefined) throw new InputError(`missing command; one of ${COMMANDS.map((c) => c.spec.name).join(', ')} (see \`tauwell --help\`)`);
   const command = COMMANDS.find((c) => c.spec.name === first);
   if (command === undefined) {
     throw new InputError(`unknown command ${JSON.stringify(first)}; one of ${COMMANDS.map((c) => c.spec.name).join(', ')} (see \`tauwell --help\`)`);
   }
-  const args = parseArgs(command.spec, rest);
+  const args = parseArgs(command.spec, command.argv === undefined ? rest : command.argv(rest));
   if (args.flag('help')) {
     io.stdout.write(commandHelp(command.spec));
     return 0;

@@ -13,10 +13,12 @@ import { fitToJson } from '../fit-json.js';
 import { fitLines, groupHeading } from '../fit-text.js';
 import type { CliIo } from '../io.js';
 import { toJsonText } from '../json.js';
-import { SERIES_OPTIONS, fitGroup, loadSeries, modelOf, timeOriginText } from '../series-input.js';
+import { CSV_OR_DB_OPTIONS, DB_SERIES_NOTE, seriesSource } from '../db-series.js';
+import { fitGroup, loadSeries, modelOf, timeOriginText } from '../series-input.js';
 import { forecastToJson, rechargeToJson, type ReservoirInput } from '../forecast-json.js';
 import { forecastLines, rechargeLines, CAUTIONS, PERCENTILE_NOTE } from '../forecast-text.js';
 import { specificHeatFor, type SpecificHeat } from '../specific-heat.js';
+import { runForecastDb } from './forecast-db.js';
 import { PARAMS_FILE_NOTE, loadTheory } from './theory.js';
 
 const DEFAULT_HORIZON_YEARS = 30;
@@ -25,29 +27,32 @@ const DEFAULT_SEED = 1;
 const DEFAULT_BACKGROUND_HEAT_FLOW_W_PER_M2 = 0.06;
 
 const FORECAST_OPTIONS: readonly OptionSpec[] = [
-  ...SERIES_OPTIONS,
-  { name: 'limit-temp', kind: 'value', placeholder: 'C', help: 'economic limit as a production temperature in °C (needs --reference): θecon = Tecon − Tref' },
+  ...CSV_OR_DB_OPTIONS,
+  { name: 'limit-temp', kind: 'value', placeholder: 'C', help: 'economic limit as a production temperature in °C (needs --reference, or --db for the well\'s Tref): θecon = Tecon − Tref' },
   { name: 'limit-theta', kind: 'value', placeholder: 'K', help: 'economic limit as an available temperature θecon in K' },
   { name: 'limit-power', kind: 'value', placeholder: 'MW', help: 'economic limit as a thermal power in MW (needs --planned-flow): θecon = Pmin/(ṁ·cw)' },
   { name: 'horizon-years', kind: 'value', placeholder: 'N', defaultText: String(DEFAULT_HORIZON_YEARS), help: 'how far past the last reading to project, in years of 365.25 d' },
   { name: 'seed', kind: 'value', placeholder: 'N', defaultText: String(DEFAULT_SEED), help: 'seed of the parameter sampling; the same seed gives the same result' },
   { name: 'samples', kind: 'value', placeholder: 'N', defaultText: '4000', help: 'number of parameter samples for the P90/P50/P10 band (at least 100)' },
-  { name: 'planned-flow', kind: 'value', placeholder: 'KG_PER_S', help: 'planned production mass flow in kg/s, for power and remaining heat' },
-  { name: 'mean-flow', kind: 'value', placeholder: 'KG_PER_S', help: 'mean mass flow of the fit window in kg/s, for the recharge estimate (default: --planned-flow)' },
+  { name: 'planned-flow', kind: 'value', placeholder: 'KG_PER_S', help: 'planned production mass flow in kg/s, for power and remaining heat (with --db, default: the mean normalised mass flow of the last year of producing readings)' },
+  { name: 'mean-flow', kind: 'value', placeholder: 'KG_PER_S', help: 'mean mass flow of the fit window in kg/s, for the recharge estimate (default: --planned-flow; with --db taken from the readings)' },
   {
     name: 'specific-heat', kind: 'value', placeholder: 'J_PER_KG_K',
     help: 'specific heat cw of the produced water in J/(kg·K); default: IAPWS-IF97 cp at the mean production temperature and 1 MPa above saturation when --reference is given, else 4186 (an assumption, stated in the output)',
   },
-  { name: 'params', kind: 'value', placeholder: 'FILE.json', help: 'reservoir parameters (as for `tauwell theory`): adds the recharge estimate, fitted τ against theoretical τ (needs --mean-flow or --planned-flow)' },
+  { name: 'params', kind: 'value', placeholder: 'FILE.json', help: 'reservoir parameters (as for `tauwell theory`): adds the recharge estimate, fitted τ against theoretical τ (needs --mean-flow or --planned-flow); with --db the latest version of the well\'s reservoir is used instead' },
   { name: 'background-heat-flow', kind: 'value', placeholder: 'W_PER_M2', defaultText: String(DEFAULT_BACKGROUND_HEAT_FLOW_W_PER_M2), help: 'background conductive heat flow in W/m² that the recharge is compared with' },
 ];
 
 export const FORECAST_COMMAND: CommandSpec = {
   name: 'forecast',
   summary: 'Fit the decline, then forecast the end of economic life (P90/P50/P10, in years), the remaining producible heat (GWh, TJ) and the current power (MW).',
-  usage: 'tauwell forecast --csv FILE --time COL --value COL (--limit-temp C --reference C | --limit-theta K | --limit-power MW --planned-flow KG_PER_S) [options]',
+  usage:
+    'tauwell forecast --csv FILE --time COL --value COL (--limit-temp C --reference C | --limit-theta K | --limit-power MW --planned-flow KG_PER_S) [options]\n' +
+    '       tauwell forecast --db FILE --well NAME [--from ISO] [--to ISO] [--basis time|mass] (--limit-temp C | --limit-theta K | --limit-power MW) [options]',
   options: FORECAST_OPTIONS,
   notes: [
+    DB_SERIES_NOTE,
     'Give exactly one economic limit. Times in the JSON output are seconds after the series\' first point; heat in J, power in W, temperatures in K.',
     PERCENTILE_NOTE,
     PARAMS_FILE_NOTE,
@@ -149,6 +154,7 @@ function forecastGroup(group: SeriesGroup, args: ParsedArgs, inputs: ForecastInp
 }
 
 export function runForecast(args: ParsedArgs, io: CliIo): number {
+  if (seriesSource(args) === 'db') return runForecastDb(args, io);
   const inputs = readInputs(args, io.cwd);
   const csv = loadSeries(args, io.cwd);
   const results = csv.groups.map((g) => forecastGroup(g, args, inputs));

@@ -1,0 +1,168 @@
+/**
+ * Fits of one well from its stored readings, each stored with the fingerprint of the data it used,
+ * and whether the latest stored fit is still current.
+ */
+import { FIT_STATUS_REQUEST, FIT_WELL_REQUEST, type FitPoint, type FitStatusResponse, type FitWellRequest, type FitWellResponse, type ModelChoice } from '../../shared/contract/fits.js';
+import { instantMs, isoOf, validate } from '../../shared/contract/schema.js';
+import type { WellRef } from '../../shared/contract/wells.js';
+import { InputError } from '../../shared/errors.js';
+import { fitAuto, fitDecline, type DeclineSeries } from '../../shared/fit/fit.js';
+import type { Basis } from '../../shared/fit/types.js';
+import { PRODUCED_MASS_RULE, buildWellSeries, type WellSeries } from '../../shared/series/well-series.js';
+import type { Reading } from '../db/readings.js';
+import type { Well } from '../db/wells.js';
+import type { ServiceContext } from './context.js';
+import { FitStore, dataFingerprint, engineVersion, resultJsonText } from './fit-store.js';
+import { wellInfo } from './views.js';
+
+/** What a fit of a well starts from: its readings as a series, and the fingerprint of that data. */
+export interface PreparedSeries {
+  well: Well;
+  referenceTemperatureC: number;
+  originMs: number;
+  originSource: 'production-start' | 'first-reading';
+  /** Live readings from the start of the log to the window's end, in time order. */
+  history: Reading[];
+  series: WellSeries;
+  fingerprint: string;
+  windowFromMs: number | null;
+  windowToMs: number | null;
+}
+
+export function prepareSeries(ctx: ServiceContext, well: Well, basis: Basis, windowFromMs: number | null, windowToMs: number | null): PreparedSeries {
+  if (well.kind !== 'production') {
+    throw new InputError(`${well.name} is an injection well; decline fits are made of production wells`, { field: 'well' });
+  }
+  const tref = well.referenceTemperatureC;
+  if (tref === null) {
+    throw new InputError(`${well.name} has no reference temperature Tref for θ = T − Tref; set the well's referenceTemperatureC first`, { field: 'referenceTemperatureC' });
+  }
+  if (windowFromMs !== null && windowToMs !== null && windowFromMs > windowToMs) {
+    throw new InputError(`the window ends (${isoOf(windowToMs)}) before it starts (${isoOf(windowFromMs)})`, { field: 'to' });
+  }
+  const history = ctx.readings.listLive(well.id, windowToMs === null ? {} : { toMs: windowToMs });
+  if (history.length === 0) throw new InputError(`${well.name} has no readings${windowToMs === null ? '' : ` up to ${isoOf(windowToMs)}`}`, { field: 'well' });
+  const originSource = well.productionStartMs === null ? 'first-reading' : 'production-start';
+  const originMs = well.productionStartMs ?? history[0].timeMs;
+  const series = buildWellSeries(history, {
+    basis, referenceTemperatureC: tref, originMs,
+    ...(windowFromMs !== null ? { fromMs: windowFromMs } : {}),
+    ...(windowToMs !== null ? { toMs: windowToMs } : {}),
+  });
+  if (series.readings.length === 0) {
+    throw new InputError(`${well.name} has no readings from ${windowFromMs === null ? 'the start' : isoOf(windowFromMs)} to ${windowToMs === null ? 'the end' : isoOf(windowToMs)}`, { field: 'from' });
+  }
+  // The mass basis reads the flow history from time zero on; the time basis only the window.
+  const used = basis === 'mass' ? history : series.readings;
+  const fingerprint = dataFingerprint({ wellId: well.id, referenceTemperatureC: tref, originMs, basis, windowFromMs, windowToMs, readings: used });
+  return { well, referenceTemperatureC: tref, originMs, originSource, history, series, fingerprint, windowFromMs, windowToMs };
+}
+
+export function fitServices(ctx: ServiceContext) {
+  const store = new FitStore(ctx.fdb);
+
+  function runFit(request: FitWellRequest): { response: FitWellResponse; prepared: PreparedSeries } {
+    const req = validate(FIT_WELL_REQUEST, request);
+    const { well } = ctx.well(req);
+    const basis = req.basis ?? 'time';
+    const model: ModelChoice = req.model ?? 'exponential';
+    const prepared = prepareSeries(ctx, well, basis, req.from === undefined ? null : instantMs(req.from), req.to === undefined ? null : instantMs(req.to));
+    const s = prepared.series;
+    const decline: DeclineSeries = { basis, x: s.x, theta: s.theta, include: s.include };
+    const fit = model === 'auto' ? fitAuto(decline) : fitDecline(decline, model);
+    const stored = store.insert({
+      wellId: well.id, model, basis, windowFromMs: prepared.windowFromMs, windowToMs: prepared.windowToMs,
+      resultJson: resultJsonText(fit), fingerprint: prepared.fingerprint, engineVersion: engineVersion(), createdMs: ctx.now(),
+    });
+    const points: FitPoint[] = s.readings.map((r, i) => ({
+      readingId: r.id,
+      time: isoOf(r.timeMs),
+      x: s.x[i],
+      thetaK: Number.isFinite(s.theta[i]) ? s.theta[i] : null,
+      included: s.include[i] === 1,
+      excludedBecause: s.excludedBecause[i],
+    }));
+    const response: FitWellResponse = {
+      well: wellInfo(ctx, well),
+      model,
+      basis,
+      window: { from: prepared.windowFromMs === null ? null : isoOf(prepared.windowFromMs), to: prepared.windowToMs === null ? null : isoOf(prepared.windowToMs) },
+      timeOrigin: isoOf(prepared.originMs),
+      timeOriginSource: prepared.originSource,
+      referenceTemperatureC: prepared.referenceTemperatureC,
+      fit,
+      points,
+      counts: s.counts,
+      meanMassFlowKgPerS: s.meanMassFlowKgPerS,
+      meanProductionTemperatureC: s.meanProductionTemperatureC,
+      producedMass: s.producedMass === null ? null : { ...s.producedMass, rule: PRODUCED_MASS_RULE },
+      stored: { fitId: stored.id, fingerprint: stored.fingerprint, engineVersion: stored.engineVersion, createdAt: isoOf(stored.createdMs) },
+      assumptions: fitAssumptions(prepared),
+    };
+    return { response, prepared };
+  }
+
+  return {
+    runFit,
+
+    fitWell(request: FitWellRequest): FitWellResponse {
+      return runFit(request).response;
+    },
+
+    fitStatus(request: WellRef): FitStatusResponse {
+      const { well } = ctx.well(validate(FIT_STATUS_REQUEST, request));
+      const latest = store.latest(well.id);
+      if (latest === undefined) {
+        return { well: wellInfo(ctx, well), latest: null, currentFingerprint: null, stale: null, engineChanged: null, message: `no fit of ${well.name} is stored yet` };
+      }
+      let current: string | null = null;
+      let problem = '';
+      try {
+        current = prepareSeries(ctx, well, latest.basis, latest.windowFromMs, latest.windowToMs).fingerprint;
+      } catch (e) {
+        if (!(e instanceof InputError)) throw e;
+        problem = e.reason;
+      }
+      const stale = current !== latest.fingerprint;
+      const engineChanged = latest.engineVersion !== engineVersion();
+      const when = isoOf(latest.createdMs);
+      const message = current === null
+        ? `the fit of ${when} cannot be repeated now: ${problem}`
+        : stale
+          ? `stale: the readings (or Tref, time zero) of ${well.name} changed since the fit of ${when}; fit again`
+          : `current: the fit of ${when} used the readings as they are now${engineChanged ? ` (made by ${latest.engineVersion}, this is ${engineVersion()})` : ''}`;
+      return {
+        well: wellInfo(ctx, well),
+        latest: {
+          fitId: latest.id, fingerprint: latest.fingerprint, engineVersion: latest.engineVersion, createdAt: when,
+          model: latest.model, basis: latest.basis,
+          window: { from: latest.windowFromMs === null ? null : isoOf(latest.windowFromMs), to: latest.windowToMs === null ? null : isoOf(latest.windowToMs) },
+        },
+        currentFingerprint: current,
+        stale,
+        engineChanged,
+        message,
+      };
+    },
+  };
+}
+
+function fitAssumptions(p: PreparedSeries): string[] {
+  const s = p.series;
+  const c = s.counts;
+  const out = [
+    `θ = Tprod − Tref with Tref = ${p.referenceTemperatureC} °C, the well's reference temperature`,
+    `time zero ${isoOf(p.originMs)}: ${p.originSource === 'production-start' ? "the well's production start" : 'its first reading (no production start is set)'}`,
+    `${c.included} of ${c.readings} readings fitted; left out (kept in the log): ${c.excludedNotProducing} not producing, ${c.excludedFlagged} flagged bad or spike, ` +
+      `${c.excludedNoTemperature} without a production temperature, ${c.excludedBeforeTimeZero} before time zero`,
+  ];
+  if (s.producedMass !== null) {
+    out.push(PRODUCED_MASS_RULE);
+    if (s.producedMass.intervalsSkipped > 0) out.push(`${s.producedMass.intervalsSkipped} producing intervals had no flow logged and count zero produced mass`);
+    const first = p.history.find((r) => r.timeMs >= p.originMs);
+    if (first !== undefined && first.timeMs > p.originMs) {
+      out.push(`the mass produced between the production start and the first reading (${isoOf(first.timeMs)}) is counted at that reading's flow`);
+    }
+  }
+  return out;
+}

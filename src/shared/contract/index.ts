@@ -1,0 +1,85 @@
+/**
+ * The one service interface behind every front end (command line, desktop, loopback server): each
+ * method takes a request that its schema below checks, and returns the response type. A transport
+ * looks the schema up by method name, so an untrusted payload is checked before anything runs.
+ */
+import type { BuildDemoResponse } from './demo.js';
+import { EXPORT_REQUEST, type ExportRequest, type ExportResponse } from './exports.js';
+import {
+  FIT_STATUS_REQUEST, FIT_WELL_REQUEST, FORECAST_WELL_REQUEST,
+  type FitStatusResponse, type FitWellRequest, type FitWellResponse, type ForecastWellRequest, type ForecastWellResponse,
+} from './fits.js';
+import {
+  AUDIT_REQUEST, DELETE_READING_REQUEST, EDIT_READING_REQUEST, GET_READING_REQUEST, LIST_READINGS_REQUEST, LOG_READING_REQUEST,
+  type AuditRequest, type AuditResponse, type DeleteReadingRequest, type DeleteReadingResponse, type EditReadingRequest,
+  type GetReadingRequest, type GetReadingResponse,
+  type EditReadingResponse, type ListReadingsRequest, type ListReadingsResponse, type LogReadingRequest, type LogReadingResponse,
+} from './readings.js';
+import {
+  ADD_RESERVOIR_VERSION_REQUEST, CREATE_RESERVOIR_REQUEST, RESERVOIR_REF, RESERVOIR_THEORY_REQUEST,
+  type AddReservoirVersionRequest, type CreateReservoirRequest, type ListReservoirVersionsResponse, type ReservoirInfo,
+  type ReservoirRef, type ReservoirTheoryRequest, type ReservoirTheoryResponse, type ReservoirVersionJson,
+} from './reservoirs.js';
+import { object, type Schema } from './schema.js';
+import {
+  CREATE_FIELD_REQUEST, CREATE_WELL_REQUEST, LIST_WELLS_REQUEST, UPDATE_WELL_REQUEST, WELL_REF,
+  type CreateFieldRequest, type CreateWellRequest, type FieldInfo, type GetWellResponse, type ListWellsRequest,
+  type ListWellsResponse, type UpdateWellRequest, type WellInfo, type WellRef,
+} from './wells.js';
+
+export interface TauwellServices {
+  // fields and wells
+  listWells(request?: ListWellsRequest): ListWellsResponse;
+  getWell(request: WellRef): GetWellResponse;
+  createField(request: CreateFieldRequest): FieldInfo;
+  createWell(request: CreateWellRequest): WellInfo;
+  updateWell(request: UpdateWellRequest): WellInfo;
+  // readings and the audit log
+  logReading(request: LogReadingRequest): LogReadingResponse;
+  editReading(request: EditReadingRequest): EditReadingResponse;
+  deleteReading(request: DeleteReadingRequest): DeleteReadingResponse;
+  /** A reading by id, live or deleted. */
+  getReading(request: GetReadingRequest): GetReadingResponse;
+  listReadings(request: ListReadingsRequest): ListReadingsResponse;
+  auditLog(request?: AuditRequest): AuditResponse;
+  // exports
+  exportData(request: ExportRequest): ExportResponse;
+  // fits and forecasts
+  fitWell(request: FitWellRequest): FitWellResponse;
+  fitStatus(request: WellRef): FitStatusResponse;
+  forecastWell(request: ForecastWellRequest): ForecastWellResponse;
+  // reservoirs
+  createReservoir(request: CreateReservoirRequest): ReservoirInfo;
+  addReservoirVersion(request: AddReservoirVersionRequest): ReservoirVersionJson;
+  listReservoirVersions(request: ReservoirRef): ListReservoirVersionsResponse;
+  reservoirTheory(request: ReservoirTheoryRequest): ReservoirTheoryResponse;
+  // the invented demo field
+  buildDemo(request?: Record<string, never>): BuildDemoResponse;
+  // CSV import: wired in by src/main/services/imports.ts (its request schema joins REQUEST_SCHEMAS below).
+}
+
+export type ServiceName = keyof TauwellServices;
+
+/** The request schema of every service method, for transports that receive untrusted payloads. */
+export const REQUEST_SCHEMAS: { readonly [K in ServiceName]: Schema<unknown> } = {
+  listWells: LIST_WELLS_REQUEST,
+  getWell: WELL_REF,
+  createField: CREATE_FIELD_REQUEST,
+  createWell: CREATE_WELL_REQUEST,
+  updateWell: UPDATE_WELL_REQUEST,
+  logReading: LOG_READING_REQUEST,
+  editReading: EDIT_READING_REQUEST,
+  deleteReading: DELETE_READING_REQUEST,
+  getReading: GET_READING_REQUEST,
+  listReadings: LIST_READINGS_REQUEST,
+  auditLog: AUDIT_REQUEST,
+  exportData: EXPORT_REQUEST,
+  fitWell: FIT_WELL_REQUEST,
+  fitStatus: FIT_STATUS_REQUEST,
+  forecastWell: FORECAST_WELL_REQUEST,
+  createReservoir: CREATE_RESERVOIR_REQUEST,
+  addReservoirVersion: ADD_RESERVOIR_VERSION_REQUEST,
+  listReservoirVersions: RESERVOIR_REF,
+  reservoirTheory: RESERVOIR_THEORY_REQUEST,
+  buildDemo: object({}),
+};
