@@ -11,6 +11,11 @@ const LABEL: Record<ParameterName, string> = {
   b: 'b    Arps exponent',
 };
 
+/** On the produced-mass basis the decline constant is the characteristic mass Mc = C/cw (DOMAIN §4). */
+function labelOf(name: ParameterName, fit: FitResult): string {
+  return name === 'tau' && fit.basis === 'mass' ? 'Mc   characteristic mass' : LABEL[name];
+}
+
 const ZERO_CELSIUS_K = 273.15; // exact offset of the Celsius scale (SI Brochure)
 
 /** Heading line of one group's result. */
@@ -45,7 +50,7 @@ export function fitLines(fit: FitResult | AutoFitResult, referenceC: number | un
 
 function parameterRow(fit: FitResult, name: ParameterName, referenceC: number | undefined): string[] {
   const p = fit.parameters[name];
-  if (p === undefined) return [LABEL[name], MISSING, MISSING, MISSING, ''];
+  if (p === undefined) return [labelOf(name, fit), MISSING, MISSING, MISSING, ''];
   const u = p.unit === '1' ? '' : ` ${p.unit}`;
   const interval = Number.isFinite(p.ci95[0]) ? `${num(p.ci95[0])} … ${num(p.ci95[1])}${u}` : MISSING;
   let everyday = '';
@@ -54,5 +59,5 @@ function parameterRow(fit: FitResult, name: ParameterName, referenceC: number | 
   } else if ((name === 'theta0' || name === 'thetaInf') && referenceC !== undefined) {
     everyday = `T = ${celsius(p.value + referenceC + ZERO_CELSIUS_K)}`;
   }
-  return [LABEL[name], `${num(p.value)}${u}`, `${num(p.stderr, 3)}${u}`, interval, everyday];
+  return [labelOf(name, fit), `${num(p.value)}${u}`, `${num(p.stderr, 3)}${u}`, interval, everyday];
 }
