@@ -26,31 +26,11 @@ import { InputError } from '../../shared/errors.js';
 import { AuditLog } from './audit.js';
 import { isConstraintError, isoTime, optionalNumber, optionalText, requireId, requireInstantMs, requireText } from './checks.js';
 import type { FieldDb } from './database.js';
+import type { ReadingStatus, ReadingValues } from '../../shared/contract/reading-rules.js';
 
-export type ReadingStatus = 'producing' | 'shut-in' | 'test';
+export type { ReadingStatus, ReadingValues };
+
 export type ReadingSource = 'manual' | 'import';
-
-/** The measured values; temperatures in °C, the rest SI, each with the unit it was entered in. */
-export interface ReadingValues {
-  productionTemperatureC: number | null;
-  injectionTemperatureC: number | null;
-  temperatureUnit: string | null;
-  /** As entered, when entered as a mass flow. */
-  massFlowKgPerS: number | null;
-  /** As entered, when entered as a volume flow. */
-  volumeFlowM3PerS: number | null;
-  flowUnit: string | null;
-  /** Mass flow; a volume flow converted with `flowDensityKgPerM3`. Set by the caller. */
-  normalisedMassFlowKgPerS: number | null;
-  /** Water density used for that conversion: the recorded assumption. */
-  flowDensityKgPerM3: number | null;
-  pressurePa: number | null;
-  pressureUnit: string | null;
-  status: ReadingStatus;
-  note: string;
-  /** e.g. 'spike', 'bad'; a flagged reading is kept in the log but left out of fits. */
-  flags: string[];
-}
 
 export interface NewReading extends Partial<ReadingValues> {
   wellId: number;

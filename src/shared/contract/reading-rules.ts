@@ -26,7 +26,7 @@
  */
 import { InputError } from '../errors.js';
 import { findUnit } from '../units.js';
-import { liquidWater, saturationPressurePa } from '../water/iapws97.js';
+import { liquidDensityKgPerM3, saturationPressurePa } from '../water/iapws97.js';
 
 export const READING_STATUSES = ['producing', 'shut-in', 'test'] as const;
 export type ReadingStatus = (typeof READING_STATUSES)[number];
@@ -133,7 +133,9 @@ export function flowDensity(temperatureC: number, loggedPressurePa: number | nul
   try {
     const assumed = loggedPressurePa === null;
     const p = assumed ? saturationPressurePa(t) + ASSUMED_MARGIN_OVER_SATURATION_PA : loggedPressurePa;
-    const density = liquidWater(t, p).densityKgPerM3;
+    // The same function as the import's, so a reading logged by hand and the same reading imported are
+    // the same doubles and compare as exact duplicates.
+    const density = liquidDensityKgPerM3(t, p);
     const at = assumed ? `saturation + 1 MPa = ${round(p / 1e6, 4)} MPa (no pressure logged)` : `the logged ${round(p / 1e6, 4)} MPa`;
     return {
       densityKgPerM3: density,
@@ -206,19 +208,30 @@ export interface EnteredReading {
   status?: string | null;
 }
 
-/** The stored form of a reading's values (ReadingValues of the field log, less note and flags). */
-export interface NormalisedReading {
+/** The measured values of a stored reading; temperatures in °C, the rest SI, each with the unit it was entered in. */
+export interface ReadingValues {
   productionTemperatureC: number | null;
   injectionTemperatureC: number | null;
   temperatureUnit: string | null;
+  /** As entered, when entered as a mass flow. */
   massFlowKgPerS: number | null;
+  /** As entered, when entered as a volume flow. */
   volumeFlowM3PerS: number | null;
   flowUnit: string | null;
+  /** Mass flow; a volume flow converted with `flowDensityKgPerM3`. */
   normalisedMassFlowKgPerS: number | null;
+  /** Water density used for that conversion: the recorded assumption. */
   flowDensityKgPerM3: number | null;
   pressurePa: number | null;
   pressureUnit: string | null;
   status: ReadingStatus;
+  note: string;
+  /** e.g. 'spike', 'bad'; a flagged reading is kept in the log but left out of fits. */
+  flags: string[];
+}
+
+/** The result of normalising entered values: the stored values less note and flags, with the assumptions applied. */
+export interface NormalisedReading extends Omit<ReadingValues, 'note' | 'flags'> {
   /** Plain-words assumptions applied (the density of a volume flow). */
   assumptions: string[];
 }

@@ -53,7 +53,9 @@ export type DateOrder = 'dmy' | 'mdy' | 'ymd';
  */
 export type SerialDates = 'auto' | 'off' | '1900' | '1904';
 
-export type ReadingStatus = 'producing' | 'shut-in' | 'test';
+import type { ReadingStatus } from '../contract/reading-rules.js';
+
+export type { ReadingStatus };
 export type TextEncoding = 'utf-8' | 'utf-16le' | 'utf-16be';
 
 export interface ReadingsCsvOptions {
