@@ -7,13 +7,21 @@ export default defineConfig({
   main: {
     build: {
       outDir: 'out/main',
-      rollupOptions: { input: resolve('src/main/desktop/index.ts'), external: ['better-sqlite3', 'electron'] },
+      // The app's code goes to out/main/desktop/, three folders below the project like src/main/db and
+      // dist/main/db, because the field log finds migrations/ (and package.json) three folders up from
+      // its own module. out/main/index.js (package.json "main") only imports it.
+      rollupOptions: {
+        input: { index: resolve('src/main/desktop/entry.ts'), 'desktop/index': resolve('src/main/desktop/index.ts') },
+        output: { chunkFileNames: 'desktop/[name]-[hash].js' },
+        external: ['better-sqlite3', 'electron'],
+      },
     },
   },
   preload: {
     build: {
       outDir: 'out/preload',
-      rollupOptions: { input: resolve('src/main/desktop/preload.ts') },
+      // CommonJS: Electron runs a sandboxed preload as a plain script, so an ES-module preload would not load.
+      rollupOptions: { input: resolve('src/main/desktop/preload.ts'), output: { format: 'cjs', entryFileNames: '[name].cjs' } },
     },
   },
   renderer: {

@@ -14,6 +14,7 @@ import { FORECAST_COMMAND, runForecast } from './commands/forecast.js';
 import { INIT_COMMAND, runInit } from './commands/init.js';
 import { LOG_COMMAND, runLog } from './commands/log.js';
 import { READINGS_COMMAND, runReadings } from './commands/readings.js';
+import { SERVE_COMMAND, runServe } from './commands/serve.js';
 import { THEORY_COMMAND, runTheory } from './commands/theory.js';
 import { WATER_COMMAND, runWater } from './commands/water.js';
 import { WELLS_COMMAND, runWells } from './commands/wells.js';
@@ -45,6 +46,7 @@ const COMMANDS: readonly Command[] = [
   { spec: EDIT_COMMAND, run: runEdit },
   { spec: DELETE_COMMAND, run: runDelete },
   { spec: EXPORT_COMMAND, run: runExport, argv: exportArgv },
+  { spec: SERVE_COMMAND, run: runServe },
   // CSV import: { spec: IMPORT_COMMAND, run: runImport } from './commands/import.js' goes here.
 ];
 
