@@ -10,6 +10,7 @@ import { peakRssMiB } from './lib.mjs';
 
 const SECTIONS = {
   fit: './fit.mjs',
+  import: './import.mjs',
 };
 
 const USAGE = `usage: node bench/run.mjs [section ...] [--quick]

@@ -11,6 +11,8 @@ import { DELETE_COMMAND, EDIT_COMMAND, runDelete, runEdit } from './commands/edi
 import { EXPORT_COMMAND, exportArgv, runExport } from './commands/export.js';
 import { FIT_COMMAND, runFit } from './commands/fit.js';
 import { FORECAST_COMMAND, runForecast } from './commands/forecast.js';
+import { CONFLICTS_COMMAND, RESOLVE_COMMAND, runConflicts, runResolve } from './commands/conflicts.js';
+import { IMPORT_COMMAND, importArgv, runImport } from './commands/import.js';
 import { INIT_COMMAND, runInit } from './commands/init.js';
 import { LOG_COMMAND, runLog } from './commands/log.js';
 import { READINGS_COMMAND, runReadings } from './commands/readings.js';
@@ -47,7 +49,9 @@ const COMMANDS: readonly Command[] = [
   { spec: DELETE_COMMAND, run: runDelete },
   { spec: EXPORT_COMMAND, run: runExport, argv: exportArgv },
   { spec: SERVE_COMMAND, run: runServe },
-  // CSV import: { spec: IMPORT_COMMAND, run: runImport } from './commands/import.js' goes here.
+  { spec: IMPORT_COMMAND, run: runImport, argv: importArgv },
+  { spec: CONFLICTS_COMMAND, run: runConflicts },
+  { spec: RESOLVE_COMMAND, run: runResolve },
 ];
 
 export async function main(argv: string[], io: Partial<CliIo> = {}): Promise<number> {

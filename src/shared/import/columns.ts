@@ -20,7 +20,7 @@ export const ROLE_SYNONYMS: Readonly<Record<ColumnRole, readonly string[]>> = {
   'production-temperature': [
     'production temperature', 'production temp', 'prod temperature', 'prod temp', 'wellhead temperature', 'wellhead temp',
     'well head temperature', 'well head temp', 'wht', 't prod', 'tprod', 't production', 'outlet temperature', 'outlet temp',
-    'temperature', 'temp',
+    'temp prod', 'temperature prod', 'temp production', 'temperature production', 'temperature', 'temp',
   ],
   flow: [
     'flow', 'flow rate', 'flowrate', 'mass flow', 'mass flow rate', 'massflow', 'volume flow', 'volume flow rate', 'volumetric flow',
@@ -29,7 +29,8 @@ export const ROLE_SYNONYMS: Readonly<Record<ColumnRole, readonly string[]>> = {
   'injection-temperature': [
     'injection temperature', 'injection temp', 'inj temperature', 'inj temp', 'reinjection temperature', 'reinjection temp',
     'reinjection', 're injection temperature', 're injection temp', 'reinj temp', 'return temperature', 'return temp', 't inj', 'tinj',
-    't reinj', 't return', 'inlet temperature', 'inlet temp',
+    't reinj', 't return', 'inlet temperature', 'inlet temp', 'temp inj', 'temperature inj', 'temp injection',
+    'temperature injection', 'temp reinj',
   ],
   pressure: ['whp', 'wellhead pressure', 'well head pressure', 'pressure', 'p wh', 'pwh', 'wellhead p'],
   status: ['status', 'state', 'mode', 'well status', 'well state', 'operating status', 'operating mode'],

@@ -1,0 +1,247 @@
+/**
+ * Contract of the field-data CSV import: import a plant export into a field, list the imports,
+ * list and resolve the conflicts an import held back, save and load import profiles.
+ *
+ * An import's report counts every data row it read and says where each went:
+ *   rowsRead = imported + duplicates + conflicts + rejected
+ * (blank rows are not data rows; `blankRows` says how many were skipped). Flagged readings (spikes)
+ * are imported and counted among `imported` as well. Instants are ISO 8601 UTC ('…Z').
+ */
+import type { CsvFileInfo, ReadCounts } from '../import/types.js';
+import { COLUMN_ROLES, UNIT_ROLES, type ColumnRole, type DateOrder, type DecimalSeparator, type SerialDates, type UnitRole } from '../import/types.js';
+import type { ReadingJson } from './readings.js';
+import { boolean, nullable, number, object, oneOf, optional, string, type Schema } from './schema.js';
+
+export type ImportStatus = 'running' | 'complete' | 'failed' | 'cancelled' | 'interrupted';
+
+/** The options of an import that a profile can hold. */
+export interface ImportProfileOptions {
+  /** Header of each role's column; null: the file has no such column. */
+  columns?: Partial<Record<ColumnRole, string | null>>;
+  /** Unit of a role's values, overriding the header and the default. */
+  units?: Partial<Record<UnitRole, string>>;
+  /** IANA zone of naive timestamps; default the field's. */
+  timeZone?: string;
+  dateOrder?: DateOrder;
+  decimal?: DecimalSeparator;
+  /** ',', ';', '\t', '|' or comma, semicolon, tab, pipe; detected when absent. */
+  delimiter?: string;
+  serialDates?: SerialDates;
+  /** Well of every row, for a file without a well column. */
+  well?: string;
+}
+
+export interface ImportCsvRequest extends ImportProfileOptions {
+  /** Path of the CSV file, as the back end sees it. */
+  file: string;
+  /** Field to import into; may be left out while the field log has one field. */
+  field?: string;
+  /** Create the wells the file names and the field lacks (as production wells), rather than reject their rows. */
+  createWells?: boolean;
+  /** Import a file again although an import of the same bytes (SHA-256) completed. */
+  force?: boolean;
+  /** Start from the options of this saved profile; the request's own options win. */
+  profile?: string;
+  /** Save the options this import used as a profile of this name (replacing one of the same name). */
+  saveProfile?: string;
+}
+
+/** An import as recorded. */
+export interface ImportRecordJson {
+  id: number;
+  file: string;
+  sizeBytes: number;
+  sha256: string;
+  field: string | null;
+  status: ImportStatus;
+  message: string;
+  rowsRead: number;
+  imported: number;
+  duplicates: number;
+  conflicts: number;
+  rejected: number;
+  flagged: number;
+  started: string;
+  finished: string | null;
+  /** Column role → header used (null: no such column). */
+  mapping: Record<string, string | null>;
+  /** Unit role → { unit, source } used. */
+  units: Record<string, unknown>;
+  /** Options given, what the reader decided about the file, its read counts (see ImportCsvResponse). */
+  options: Record<string, unknown>;
+}
+
+export interface RejectedRowJson {
+  line: number;
+  reason: string;
+  /** The row's text exactly as in the file. */
+  raw: string;
+}
+
+export interface ImportCsvResponse {
+  /** The import's record; null only when the file was refused as already imported. */
+  import: ImportRecordJson | null;
+  /** The earlier complete import of the same bytes, if any (the reason for a refusal, or what `force` repeated). */
+  alreadyImported: ImportRecordJson | null;
+  /** Rejected rows in line order, the first REPORT_REJECTED_LIMIT; all are stored and exportable. */
+  rejected: RejectedRowJson[];
+  rejectedTruncated: boolean;
+  /** Wells the file names that the field lacks, with how many rows name each (rejected unless created). */
+  unknownWells: { name: string; rows: number }[];
+  /** Wells created by `createWells`. */
+  createdWells: string[];
+  /** Empty rows skipped: not data rows, not counted in rowsRead. */
+  blankRows: number;
+  /** What the reader decided about the file (null when it was not read). */
+  info: CsvFileInfo | null;
+  readCounts: ReadCounts | null;
+  /** The profile saved, if `saveProfile` was given and the import completed. */
+  profileSaved: string | null;
+  /** One plain-words line: the accounting, or why nothing was done. */
+  message: string;
+}
+
+/** How many rejected rows a report lists; `tauwell export rejected` has them all. */
+export const REPORT_REJECTED_LIMIT = 1000;
+
+/** The values of an imported row, in the stored units (°C, kg/s, m³/s, Pa), as a conflict holds them. */
+export interface ImportedValues {
+  productionTemperatureC: number;
+  injectionTemperatureC: number | null;
+  temperatureUnit: string;
+  massFlowKgPerS: number | null;
+  volumeFlowM3PerS: number | null;
+  flowUnit: string | null;
+  normalisedMassFlowKgPerS: number | null;
+  flowDensityKgPerM3: number | null;
+  pressurePa: number | null;
+  pressureUnit: string | null;
+  status: 'producing' | 'shut-in' | 'test';
+  note: string;
+}
+
+export type ConflictResolution = 'open' | 'kept-existing' | 'replaced';
+
+export interface ConflictJson {
+  id: number;
+  importId: number;
+  /** Line of the imported file, and its text exactly as in the file. */
+  line: number;
+  raw: string;
+  well: string;
+  field: string;
+  time: string;
+  values: ImportedValues;
+  /** The reading that held the instant when the row was imported (also when since deleted or replaced). */
+  existing: ReadingJson | null;
+  resolution: ConflictResolution;
+  resolvedAt: string | null;
+}
+
+export interface ListConflictsRequest {
+  importId?: number;
+  /** Only conflicts still open (default: all). */
+  open?: boolean;
+}
+
+export interface ListConflictsResponse {
+  conflicts: ConflictJson[];
+}
+
+export type KeepChoice = 'existing' | 'new';
+
+/** Resolve one conflict (`id`) or every open conflict of an import (`importId` with `all: true`). */
+export interface ResolveConflictsRequest {
+  id?: number;
+  importId?: number;
+  all?: boolean;
+  /** existing: keep the stored reading; new: replace it by the imported values (the old one is soft-deleted). */
+  keep: KeepChoice;
+  reason?: string;
+}
+
+export interface ResolveConflictsResponse {
+  resolved: ConflictJson[];
+}
+
+export interface ListImportsRequest {
+  limit?: number;
+}
+
+export interface ListImportsResponse {
+  imports: ImportRecordJson[];
+}
+
+export interface ImportProfileJson extends ImportProfileOptions {
+  name: string;
+  created: string;
+}
+
+export interface SaveImportProfileRequest extends ImportProfileOptions {
+  name: string;
+}
+
+export interface ImportProfileRef {
+  name: string;
+}
+
+export interface ListImportProfilesResponse {
+  profiles: ImportProfileJson[];
+}
+
+// ---- schemas ----
+
+const NAME = string({ maxLength: 200 });
+const DATE_ORDERS: readonly DateOrder[] = ['dmy', 'mdy', 'ymd'];
+const SERIAL_DATES: readonly SerialDates[] = ['auto', 'off', '1900', '1904'];
+
+/** Role → value maps: every key a known role. */
+function roleMap<T>(roles: readonly string[], value: Schema<T>, expected: string): Schema<Partial<Record<string, T>>> {
+  return {
+    expected,
+    check(v, path) {
+      const shape = Object.fromEntries(roles.map((r) => [r, optional(value)])) as Record<string, Schema<T | undefined>>;
+      return object(shape).check(v, path) as Partial<Record<string, T>>;
+    },
+  };
+}
+
+const PROFILE_SHAPE = {
+  columns: optional(roleMap(COLUMN_ROLES, nullable(string({ maxLength: 500 })), 'an object of column role: header')),
+  units: optional(roleMap(UNIT_ROLES, string({ maxLength: 50 }), 'an object of unit role: unit')),
+  timeZone: optional(string({ maxLength: 100 })),
+  dateOrder: optional(oneOf(DATE_ORDERS)),
+  decimal: optional(oneOf<DecimalSeparator>(['.', ','])),
+  delimiter: optional(string({ allowEmpty: false, maxLength: 9 })),
+  serialDates: optional(oneOf(SERIAL_DATES)),
+  well: optional(NAME),
+};
+
+export const IMPORT_CSV_REQUEST = object({
+  ...PROFILE_SHAPE,
+  file: string({ maxLength: 4096 }),
+  field: optional(NAME),
+  createWells: optional(boolean()),
+  force: optional(boolean()),
+  profile: optional(NAME),
+  saveProfile: optional(NAME),
+}) as Schema<ImportCsvRequest>;
+
+export const LIST_IMPORTS_REQUEST = object({ limit: optional(number({ integer: true, min: 1 })) }) as Schema<ListImportsRequest>;
+
+export const LIST_CONFLICTS_REQUEST = object({
+  importId: optional(number({ integer: true, min: 1 })),
+  open: optional(boolean()),
+}) as Schema<ListConflictsRequest>;
+
+export const RESOLVE_CONFLICTS_REQUEST = object({
+  id: optional(number({ integer: true, min: 1 })),
+  importId: optional(number({ integer: true, min: 1 })),
+  all: optional(boolean()),
+  keep: oneOf<KeepChoice>(['existing', 'new']),
+  reason: optional(string({ allowEmpty: true, maxLength: 1000 })),
+}) as Schema<ResolveConflictsRequest>;
+
+export const SAVE_IMPORT_PROFILE_REQUEST = object({ ...PROFILE_SHAPE, name: NAME }) as Schema<SaveImportProfileRequest>;
+export const IMPORT_PROFILE_REF = object({ name: NAME }) as Schema<ImportProfileRef>;
+export const LIST_IMPORT_PROFILES_REQUEST = object({}) as Schema<Record<string, never>>;
