@@ -14,15 +14,14 @@ describe('demo/invented-export-with-faults.csv into the demo field log', () => {
     const fdb = freshDb();
     buildDemo(fdb);
     const service = createImportService(fdb, { who: 'tester' });
-    // Day-first dates, as the README says the import must be told. The two temperature headers are
-    // named explicitly: the reader's header synonyms do not (yet) read "Temp. Prod." and "Temp. Inj.".
-    const columns = { 'production-temperature': 'Temp. Prod. (°C)', 'injection-temperature': 'Temp. Inj. (°C)' };
-    const r = await service.importCsv({ file: EXPORT, dateOrder: 'dmy', columns });
+    // Day-first dates: the one thing the README says the import must be told.
+    const r = await service.importCsv({ file: EXPORT, dateOrder: 'dmy' });
 
     // README: 16 data rows (the empty line 8 skipped) = 4 new + 6 duplicates + 1 conflict + 5 rejected; line 12 a spike.
     expect(r.import).toMatchObject({ status: 'complete', rowsRead: 16, imported: 4, duplicates: 6, conflicts: 1, rejected: 5, flagged: 1 });
     expect(r.blankRows).toBe(1);
     expect(r.info).toMatchObject({ delimiter: ';', decimal: ',', linebreak: '\r\n', timeZone: 'Pacific/Auckland', dateOrder: 'dmy' });
+    expect(r.info?.columns).toMatchObject({ 'production-temperature': 'Temp. Prod. (°C)', 'injection-temperature': 'Temp. Inj. (°C)', flow: 'Flow [kg/s]', pressure: 'WHP [bar]' });
 
     // Rejected: line 7 #VALUE!, 10 "l9,8", 16 1763,4 °C, 17 negative flow, 18 unknown well KR-7.
     expect(r.rejected.map((x) => x.line)).toEqual([7, 10, 16, 17, 18]);

@@ -24,7 +24,7 @@ describe('accounting and storage', () => {
     // 4 data rows (lines 2, 3, 5, 6) = 2 imported + 2 rejected; line 4 is blank.
     expect(r.import).toMatchObject({ status: 'complete', rowsRead: 4, imported: 2, duplicates: 0, conflicts: 0, rejected: 2, flagged: 0 });
     expect(r.blankRows).toBe(1);
-    expect(r.message).toBe('4 rows read = 2 imported + 0 duplicates + 0 conflicts + 2 rejected; 1 blank row skipped (not data rows)');
+    expect(r.message).toBe('4 rows read = 2 imported + 0 duplicates + 0 conflicts + 2 rejected; 1 blank row skipped (blank rows are not data rows)');
     const id = r.import!.id;
 
     const stored = readingsOf(fdb, id);

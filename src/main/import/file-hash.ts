@@ -80,7 +80,8 @@ export async function sha256OfFile(file: string, options: HashOptions = {}): Pro
 /**
  * The worker: plain CommonJS evaluated from this text, so it runs alike from src/ (tests) and dist/.
  * Blocking reads into one reused buffer (the thread has nothing else to do) keep its memory at one
- * chunk: a read stream's fresh buffer per chunk let a 450 MB file raise the process's peak by 20 MiB.
+ * chunk: hashing a 450 MB file raised the process's peak resident set by 17 MiB (the thread itself)
+ * and took 0.44–0.51 s, against 49 MiB and 0.83–1.02 s with a read stream's fresh buffer per chunk.
  */
 const WORKER_SOURCE = `
 const { parentPort, workerData } = require('node:worker_threads');

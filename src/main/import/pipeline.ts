@@ -404,11 +404,11 @@ function plural(n: number, one: string, many = `${one}s`): string {
   return `${n} ${n === 1 ? one : many}`;
 }
 
-/** "16 rows read = 4 imported + 6 duplicates + 1 conflict + 5 rejected; 1 flagged as a spike; 1 blank row skipped (not a data row)". */
+/** "16 rows read = 4 imported + 6 duplicates + 1 conflict + 5 rejected; 1 of the imported flagged as a spike; 1 blank row skipped (blank rows are not data rows)". */
 export function accountingText(c: ImportCounts, blankRows: number): string {
   let text = `${plural(c.rowsRead, 'row')} read = ${c.imported} imported + ${plural(c.duplicates, 'duplicate')} + ${plural(c.conflicts, 'conflict')} + ${c.rejected} rejected`;
   if (c.flagged > 0) text += `; ${c.flagged} of the imported flagged as ${c.flagged === 1 ? 'a spike' : 'spikes'}`;
-  if (blankRows > 0) text += `; ${plural(blankRows, 'blank row')} skipped (not data rows)`;
+  if (blankRows > 0) text += `; ${plural(blankRows, 'blank row')} skipped (blank rows are not data rows)`;
   return text;
 }
 

@@ -11,11 +11,11 @@
  * front end that keeps working on the log meanwhile gives it a connection of its own.
  */
 import {
-  IMPORT_CSV_REQUEST, LIST_IMPORTS_REQUEST, REPORT_REJECTED_LIMIT,
-  type ImportCsvRequest, type ImportCsvResponse, type ImportProfileOptions, type ImportRecordJson, type ListImportsRequest,
+  GET_IMPORT_REQUEST, IMPORT_CSV_REQUEST, LIST_IMPORTS_REQUEST, REPORT_REJECTED_LIMIT,
+  type GetImportRequest, type ImportCsvRequest, type ImportCsvResponse, type ImportProfileOptions, type ImportRecordJson, type ListImportsRequest,
   type ListImportsResponse, type RejectedRowJson,
 } from '../../shared/contract/imports.js';
-import { isoOf, number, object, validate } from '../../shared/contract/schema.js';
+import { isoOf, validate } from '../../shared/contract/schema.js';
 import { InputError } from '../../shared/errors.js';
 import { UNIT_ROLES, type CsvFileInfo, type ReadingsCsvOptions } from '../../shared/import/types.js';
 import type { FieldDb } from '../db/database.js';
@@ -34,7 +34,6 @@ export interface ImportControl {
   onProgress?: (progress: ImportProgress) => void;
 }
 
-const GET_IMPORT_REQUEST = object({ id: number({ integer: true, min: 1 }) });
 const DEFAULT_LIST_LIMIT = 100;
 
 export function createImportService(fdb: FieldDb, options: ServiceOptions = {}) {
@@ -81,7 +80,7 @@ export function createImportService(fdb: FieldDb, options: ServiceOptions = {}) 
       return { imports: store.list(req.limit ?? DEFAULT_LIST_LIMIT).map(recordJson) };
     },
 
-    getImport(request: { id: number }): ImportRecordJson {
+    getImport(request: GetImportRequest): ImportRecordJson {
       return recordJson(requireImport(validate(GET_IMPORT_REQUEST, request).id));
     },
 

@@ -229,6 +229,12 @@ export const IMPORT_CSV_REQUEST = object({
 
 export const LIST_IMPORTS_REQUEST = object({ limit: optional(number({ integer: true, min: 1 })) }) as Schema<ListImportsRequest>;
 
+export interface GetImportRequest {
+  id: number;
+}
+
+export const GET_IMPORT_REQUEST = object({ id: number({ integer: true, min: 1 }) }) as Schema<GetImportRequest>;
+
 export const LIST_CONFLICTS_REQUEST = object({
   importId: optional(number({ integer: true, min: 1 })),
   open: optional(boolean()),
