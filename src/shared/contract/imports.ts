@@ -7,7 +7,7 @@
  * (blank rows are not data rows; `blankRows` says how many were skipped). Flagged readings (spikes)
  * are imported and counted among `imported` as well. Instants are ISO 8601 UTC ('…Z').
  */
-import type { CsvFileInfo, ReadCounts } from '../import/types.js';
+import type { CsvFileInfo, ImportedValues, ReadCounts } from '../import/types.js';
 import { COLUMN_ROLES, UNIT_ROLES, type ColumnRole, type DateOrder, type DecimalSeparator, type SerialDates, type UnitRole } from '../import/types.js';
 import type { ReadingJson } from './readings.js';
 import { boolean, nullable, number, object, oneOf, optional, string, type Schema } from './schema.js';
@@ -104,21 +104,8 @@ export interface ImportCsvResponse {
 /** How many rejected rows a report lists; `tauwell export rejected` has them all. */
 export const REPORT_REJECTED_LIMIT = 1000;
 
-/** The values of an imported row, in the stored units (°C, kg/s, m³/s, Pa), as a conflict holds them. */
-export interface ImportedValues {
-  productionTemperatureC: number;
-  injectionTemperatureC: number | null;
-  temperatureUnit: string;
-  massFlowKgPerS: number | null;
-  volumeFlowM3PerS: number | null;
-  flowUnit: string | null;
-  normalisedMassFlowKgPerS: number | null;
-  flowDensityKgPerM3: number | null;
-  pressurePa: number | null;
-  pressureUnit: string | null;
-  status: 'producing' | 'shut-in' | 'test';
-  note: string;
-}
+/** The values of an imported row, as a conflict holds them. */
+export type { ImportedValues };
 
 export type ConflictResolution = 'open' | 'kept-existing' | 'replaced';
 

@@ -53,7 +53,7 @@ export type DateOrder = 'dmy' | 'mdy' | 'ymd';
  */
 export type SerialDates = 'auto' | 'off' | '1900' | '1904';
 
-import type { ReadingStatus } from '../contract/reading-rules.js';
+import type { ReadingStatus, ReadingValues } from '../contract/reading-rules.js';
 
 export type { ReadingStatus };
 export type TextEncoding = 'utf-8' | 'utf-16le' | 'utf-16be';
@@ -120,7 +120,17 @@ export interface CsvFileInfo {
   assumptions: string[];
 }
 
-export interface Reading {
+/**
+ * The values of an imported row in stored units (°C, kg/s, m³/s, Pa): a stored reading's values
+ * (ReadingValues of the contract) with the production temperature always present and no flags yet.
+ */
+export interface ImportedValues extends Omit<ReadingValues, 'flags' | 'productionTemperatureC' | 'temperatureUnit'> {
+  productionTemperatureC: number;
+  /** Unit the production temperature was entered in (the injection temperature's is in CsvFileInfo.units). */
+  temperatureUnit: string;
+}
+
+export interface Reading extends ImportedValues {
   /** Physical line of the row's first character (header = line 1). */
   line: number;
   /** The row's text exactly as in the file, without its line break. */
@@ -128,23 +138,6 @@ export interface Reading {
   wellName: string;
   /** Instant of the reading, UTC epoch milliseconds. */
   timeMs: number;
-  productionTemperatureC: number;
-  injectionTemperatureC: number | null;
-  /** Unit the production temperature was entered in (the injection temperature's is in CsvFileInfo.units). */
-  temperatureUnit: string;
-  /** Flow as entered, if entered as mass. */
-  massFlowKgPerS: number | null;
-  /** Flow as entered, if entered as volume. */
-  volumeFlowM3PerS: number | null;
-  flowUnit: string | null;
-  /** Mass flow; a volume flow converted with flowDensityKgPerM3. */
-  normalisedMassFlowKgPerS: number | null;
-  /** Water density used for that conversion (IAPWS-IF97 region 1), the recorded assumption; null for mass flows. */
-  flowDensityKgPerM3: number | null;
-  pressurePa: number | null;
-  pressureUnit: string | null;
-  status: ReadingStatus;
-  note: string;
 }
 
 export interface Rejection {
