@@ -35,14 +35,15 @@ export interface FitOptions {
 const PRE_FIT_THRESHOLD = 50_000;
 const PRE_FIT_POINTS = 20_000;
 
-interface Prepared {
+export interface PreparedSeries {
   data: FitData;
   scale: number;
   xSI: Float64Array;
   nExcluded: number;
 }
 
-function prepare(series: DeclineSeries): Prepared {
+/** The points that enter a fit, validated, with the basis scaled to x/max|x| (shared with the reference engine). */
+export function prepareSeries(series: DeclineSeries): PreparedSeries {
   const { x, theta, weights, include } = series;
   if (x.length !== theta.length) throw new InputError(`basis has ${x.length} values but θ has ${theta.length}`, { field: 'theta' });
   if (weights !== undefined && weights.length !== x.length) throw new InputError('weights and data differ in length', { field: 'weights' });
@@ -76,12 +77,12 @@ function prepare(series: DeclineSeries): Prepared {
 }
 
 export function fitDecline(series: DeclineSeries, model: DeclineModel, options: FitOptions = {}): FitResult {
-  return fitPrepared(prepare(series), series.basis, model, options);
+  return fitPrepared(prepareSeries(series), series.basis, model, options);
 }
 
 /** Fits every model and picks the lowest AICc among those that converged; every candidate is reported. */
 export function fitAuto(series: DeclineSeries, options: FitOptions = {}): AutoFitResult {
-  const prepared = prepare(series);
+  const prepared = prepareSeries(series);
   const candidates = DECLINE_MODELS.map((m) => fitPrepared(prepared, series.basis, m, options));
   const ranked = [...candidates].sort((a, b) => rank(a) - rank(b) || a.aicc - b.aicc);
   return { ...ranked[0], candidates: ranked };
@@ -91,7 +92,7 @@ function rank(f: FitResult): number {
   return f.converged && Number.isFinite(f.aicc) ? 0 : 1;
 }
 
-function fitPrepared(prep: Prepared, basis: Basis, model: DeclineModel, options: FitOptions): FitResult {
+function fitPrepared(prep: PreparedSeries, basis: Basis, model: DeclineModel, options: FitOptions): FitResult {
   const names = parameterNamesOf(model);
   const p = names.length;
   const n = prep.data.xs.length;
@@ -190,7 +191,7 @@ function range(x: Float64Array): [number, number] {
   return [lo, hi];
 }
 
-function failure(prep: Prepared, basis: Basis, model: DeclineModel, status: FitStatus, message: string): FitResult {
+function failure(prep: PreparedSeries, basis: Basis, model: DeclineModel, status: FitStatus, message: string): FitResult {
   const names = parameterNamesOf(model);
   const nan = names.map(() => names.map(() => NaN));
   const n = prep.data.xs.length;

@@ -21,10 +21,9 @@
  */
 import { levenbergMarquardt } from 'ml-levenberg-marquardt';
 import { InputError } from '../errors.js';
-import type { FitData } from './kernels.js';
 import { startingValues } from './start.js';
 import type { DeclineModel, DeclineParameters } from './types.js';
-import type { DeclineSeries } from './fit.js';
+import { prepareSeries, type DeclineSeries } from './fit.js';
 
 export interface ReferenceFitOptions {
   /** Default 200. */
@@ -59,7 +58,8 @@ const MODELS: Record<DeclineModel, Model> = {
 };
 
 export function fitWithMlLevenbergMarquardt(series: DeclineSeries, model: DeclineModel, options: ReferenceFitOptions = {}): ReferenceFit {
-  const { data, scale } = scaled(series);
+  // The same points, weights and scaling as fitDecline: excluded and zero-weight points never enter.
+  const { data, scale } = prepareSeries(series);
   const n = data.xs.length;
   const p = model === 'exponential' ? 2 : 3;
   if (n < p + 2) throw new InputError(`${n} usable points; the ${model} model needs at least ${p + 2}`, { field: 'x' });
@@ -108,31 +108,6 @@ export function fitWithMlLevenbergMarquardt(series: DeclineSeries, model: Declin
 
 function lmOptions(q0: number[], options: ReferenceFitOptions) {
   return { initialValues: q0, maxIterations: options.maxIterations ?? 200 };
-}
-
-/** The points that enter the fit (as in fit.ts: excluded and zero-weight points never do), on x/max|x|. */
-function scaled(series: DeclineSeries): { data: FitData; scale: number } {
-  const { x, theta, weights, include } = series;
-  if (x.length !== theta.length) throw new InputError(`basis has ${x.length} values but θ has ${theta.length}`, { field: 'theta' });
-  if (weights !== undefined && weights.length !== x.length) throw new InputError('weights and data differ in length', { field: 'weights' });
-  if (include !== undefined && include.length !== x.length) throw new InputError('include mask and data differ in length', { field: 'include' });
-  const kept: number[] = [];
-  let scale = 0;
-  for (let i = 0; i < x.length; i++) {
-    if (include !== undefined && !include[i]) continue;
-    const w = weights === undefined ? 1 : weights[i];
-    if (!(w >= 0) || !Number.isFinite(w)) throw new InputError(`weight at index ${i} must be a finite number ≥ 0 (got ${w})`, { field: 'weights' });
-    if (w === 0) continue;
-    if (!Number.isFinite(x[i])) throw new InputError(`basis value at index ${i} is not a finite number`, { field: 'x' });
-    if (!Number.isFinite(theta[i])) throw new InputError(`θ at index ${i} is not a finite number`, { field: 'theta' });
-    kept.push(i);
-    scale = Math.max(scale, Math.abs(x[i]));
-  }
-  if (!(scale > 0)) scale = 1;
-  const xs = Float64Array.from(kept, (i) => x[i] / scale);
-  const ys = Float64Array.from(kept, (i) => theta[i]);
-  const ws = weights === undefined ? null : Float64Array.from(kept, (i) => weights[i]);
-  return { data: { xs, ys, ws }, scale };
 }
 
 function toScaled(model: DeclineModel, p: DeclineParameters, scale: number): number[] {
