@@ -6,6 +6,7 @@
  * stored fit is stale. Injection temperature, pressure and notes do not enter a fit, so editing
  * them leaves it current.
  */
+import { toWire } from '../../shared/contract/channels.js';
 import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import type Database from 'better-sqlite3';
@@ -104,13 +105,9 @@ export function engineVersion(): string {
   return version;
 }
 
-/** JSON text of an engine result: typed arrays as lists, NaN and infinities as null. */
+/** A fit record as stored JSON: the transports' encoding (non-finite numbers → null, typed arrays → arrays). */
 export function resultJsonText(value: unknown): string {
-  return JSON.stringify(value, (_key, v: unknown) => {
-    if (typeof v === 'number' && !Number.isFinite(v)) return null;
-    if (ArrayBuffer.isView(v) && !(v instanceof DataView)) return Array.from(v as unknown as ArrayLike<number>);
-    return v;
-  });
+  return JSON.stringify(toWire(value));
 }
 
 function toStored(r: FitRow): StoredFit {
