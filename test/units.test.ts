@@ -213,6 +213,25 @@ describe('names, aliases and case', () => {
   });
 });
 
+describe('US customary display units against NIST SP 811', () => {
+  it('pound-mass flows', () => {
+    // [SP811] footnote 22: pound = 0.453 592 37 kg exactly; 1 h = 3600 s.
+    expect(toSI(1, 'lb/s')).toBe(0.45359237);
+    expectRel(toSI(1, 'lb/h'), 0.45359237 / 3600, 1e-15);
+    expectRel(toSI(1, 'klb/h'), 453.59237 / 3600, 1e-15); // 0.125 997 88… kg/s
+  });
+
+  it('British thermal unit (International Table) and MMBtu/h', () => {
+    // [SP811] B.8: British thermal unit_IT = 1.055 056 E+03 J, exact value 1.055 055 852 62 E+03 J (footnote 9).
+    expect(toSI(1, 'Btu')).toBe(1055.05585262);
+    expectPrinted7(toSI(1, 'Btu'), 1.055056e3);
+    expectRel(toSI(1, 'MMBtu'), 1.05505585262e9, 1e-15);
+    // 1 MMBtu/h = 1.05505585262e9 J / 3600 s = 293 071.07… W
+    expectRel(toSI(1, 'MMBtu/h'), 1.05505585262e9 / 3600, 1e-15);
+    expectRel(fromSI(1e6, 'MMBtu/h'), 3.412141633, 1e-9); // 1 MW = 3.412 141 63 MMBtu/h (same factor, inverted)
+  });
+});
+
 describe('flow', () => {
   it('tells mass from volume', () => {
     expect(flowKind('t/h')).toBe('mass');

@@ -55,7 +55,9 @@ const QUANTITIES: readonly Quantity[] = [
 
 const INCH_M = 0.0254;
 const FOOT_M = 0.3048;
-const POUND_FORCE_N = 0.45359237 * 9.80665;
+const POUND_KG = 0.45359237;
+const POUND_FORCE_N = POUND_KG * 9.80665;
+const BTU_IT_J = 1055.05585262;
 const US_GALLON_M3 = 3.785411784e-3; // 231 in³; written out because 231·0.0254³ rounds one ulp low in binary
 const BARREL_M3 = 42 * US_GALLON_M3;
 const ACRE_M2 = 43560 * FOOT_M * FOOT_M; // international acre, 43 560 ft²
@@ -74,6 +76,10 @@ const LINEAR: Readonly<Record<Exclude<Quantity, 'temperature'>, readonly Linear[
     ['kg/s', 1, ['kg/sec']],
     ['t/h', 1000 / 3600, ['t/hr', 'tph', 'tonne/h']],
     ['kg/h', 1 / 3600, ['kg/hr']],
+    // 1 lb = 0.453 592 37 kg exactly (NIST SP 811, B.8).
+    ['lb/s', POUND_KG, ['lbm/s']],
+    ['lb/h', POUND_KG / 3600, ['lbm/h', 'lb/hr']],
+    ['klb/h', 1000 * POUND_KG / 3600, ['klb/hr', 'kpph']],
   ],
   volumeFlow: [
     ['m3/s', 1, []],
@@ -116,12 +122,16 @@ const LINEAR: Readonly<Record<Exclude<Quantity, 'temperature'>, readonly Linear[
     ['kWh', 3.6e6, []],
     ['MWh', 3.6e9, []],
     ['GWh', 3.6e12, []],
+    // International Table Btu: 1.055 055 852 62 × 10³ J (NIST SP 811, B.8).
+    ['Btu', BTU_IT_J, ['BTU']],
+    ['MMBtu', 1e6 * BTU_IT_J, ['MMBTU']],
   ],
   power: [
     ['W', 1, ['watt']],
     ['kW', 1e3, ['kWth']],
     ['MW', 1e6, ['MWth']],
     ['GW', 1e9, []],
+    ['MMBtu/h', 1e6 * BTU_IT_J / 3600, ['MMBTU/h', 'MMBtu/hr']],
   ],
   time: [
     ['s', 1, ['sec']],
