@@ -22,6 +22,7 @@
  *   channelOf(method), methodOfChannel(channel), isServiceMethod(name)
  *   toWire(value), type Wire<T>
  *   type CallReply, interface TauwellBridge (what the preload puts on window.tauwell)
+ *   NAVIGATE_CHANNEL, NAVIGATE_ROUTES, type NavigateRoute, isNavigateRoute(value)
  */
 import { REQUEST_SCHEMAS, type ServiceName } from './index.js';
 
@@ -114,9 +115,32 @@ export type CallReply =
   | { ok: false; kind: 'input'; error: string; reason: string; field?: string }
   | { ok: false; kind: 'refused' | 'internal'; error: string };
 
+/**
+ * The one message the main process sends unasked: the desktop menu (View, File → Import CSV…) asks
+ * the page to show a screen. One-way, main → renderer; its payload is one of NAVIGATE_ROUTES, and
+ * the preload drops anything else. Not a service method, so it is not in CHANNELS.
+ */
+export const NAVIGATE_CHANNEL = 'tauwell:navigate';
+
+/** The screens the menu can open, as hash routes (src/renderer/app/router.ts). */
+export const NAVIGATE_ROUTES = Object.freeze(['#/field', '#/decline', '#/log', '#/import', '#/reservoir', '#/recharge', '#/settings'] as const);
+export type NavigateRoute = (typeof NAVIGATE_ROUTES)[number];
+
+const ROUTES: ReadonlySet<string> = new Set(NAVIGATE_ROUTES);
+
+export function isNavigateRoute(value: unknown): value is NavigateRoute {
+  return typeof value === 'string' && ROUTES.has(value);
+}
+
 /** The preload's bridge, on `window.tauwell` in the desktop renderer. */
 export interface TauwellBridge {
   readonly version: string;
   /** Rejects without sending anything when `channel` is not in CHANNELS. */
   invoke(channel: Channel, payload: unknown): Promise<CallReply>;
+  /**
+   * Calls `listener` with the route each time the desktop menu asks for a screen (set
+   * `location.hash` to it); returns the function that stops listening. The desktop preload always
+   * has it; optional so that a bridge made for a test needs only `invoke`.
+   */
+  onNavigate?(listener: (route: NavigateRoute) => void): () => void;
 }

@@ -12,7 +12,7 @@ import type { AutoFitResult, Basis, DeclineModel, FitResult } from '../fit/types
 import type { ForecastResult } from '../forecast/forecast.js';
 import type { RechargeResult } from '../forecast/recharge.js';
 import type { ReservoirTheoryJson } from '../reservoir/params.js';
-import { instant, number, object, oneOf, optional, string, type Schema } from './schema.js';
+import { boolean, instant, number, object, oneOf, optional, string, type Schema } from './schema.js';
 import type { ReservoirVersionJson } from './reservoirs.js';
 import type { WellInfo, WellRef } from './wells.js';
 
@@ -28,6 +28,11 @@ export interface FitWellRequest extends WellRef {
   model?: ModelChoice;
   /** Default 'time'. */
   basis?: Basis;
+  /**
+   * Default true. False leaves `points` empty: a screen that draws the readings from wellSeries
+   * (overview.ts) need not receive a million point records with the fit.
+   */
+  points?: boolean;
 }
 
 export type ExclusionReason = 'not-producing' | 'flagged' | 'no-temperature' | 'before-time-zero';
@@ -149,6 +154,7 @@ const optionalWindow = {
   to: optional(instant()),
   model: optional(oneOf(MODEL_CHOICES)),
   basis: optional(oneOf(BASES)),
+  points: optional(boolean()),
 };
 
 export const FIT_WELL_REQUEST: Schema<FitWellRequest> = object(optionalWindow);
@@ -161,7 +167,7 @@ const LIMIT_SCHEMAS = {
 };
 
 /** One of three shapes, told apart by `kind`. */
-const LIMIT: Schema<ForecastLimit> = {
+export const ECONOMIC_LIMIT: Schema<ForecastLimit> = {
   expected: 'an economic limit',
   check(value, path) {
     const kind = typeof value === 'object' && value !== null ? (value as { kind?: unknown }).kind : undefined;
@@ -177,7 +183,7 @@ export const FIT_STATUS_REQUEST: Schema<WellRef> = object({ well: string({ maxLe
 
 export const FORECAST_WELL_REQUEST: Schema<ForecastWellRequest> = object({
   ...optionalWindow,
-  limit: LIMIT,
+  limit: ECONOMIC_LIMIT,
   horizonYears: optional(number({ unit: 'yr', min: 0, exclusiveMin: true, max: 1000 })),
   plannedFlowKgPerS: optional(number({ unit: 'kg/s', min: 0, exclusiveMin: true })),
   specificHeatJPerKgK: optional(number({ unit: 'J/(kg K)', min: 0, exclusiveMin: true })),

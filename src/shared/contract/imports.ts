@@ -238,3 +238,140 @@ export const RESOLVE_CONFLICTS_REQUEST = object({
 export const SAVE_IMPORT_PROFILE_REQUEST = object({ ...PROFILE_SHAPE, name: NAME }) as Schema<SaveImportProfileRequest>;
 export const IMPORT_PROFILE_REF = object({ name: NAME }) as Schema<ImportProfileRef>;
 export const LIST_IMPORT_PROFILES_REQUEST = object({}) as Schema<Record<string, never>>;
+
+// ---- staged files and import jobs (the desktop window and the loopback page) ----
+//
+// A front end does not name a path on the back end's disk: it sends the file's bytes in chunks
+// (beginUpload, uploadChunk, finishUpload), which the back end keeps in a private staging folder
+// until it exits, and then previews or imports the staged file by its id. An import runs as a job
+// on a connection of its own, so the window stays usable; importJob reports its progress and, at
+// the end, the same report as importCsv; cancelImport rolls it back.
+
+/** Largest chunk uploadChunk takes, bytes (before base64; the request stays under the 1 MiB body limit). */
+export const UPLOAD_CHUNK_BYTES = 512 * 1024;
+
+export interface BeginUploadRequest {
+  /** The file's name as the user chose it (no folders); shown in the report and kept in the record. */
+  name: string;
+  sizeBytes: number;
+}
+
+export interface BeginUploadResponse {
+  staged: string;
+  chunkBytes: number;
+}
+
+export interface UploadChunkRequest {
+  staged: string;
+  /** Byte offset of this chunk: chunks arrive in order, each at the end of the previous. */
+  offset: number;
+  /** The chunk's bytes, base64. */
+  base64: string;
+}
+
+export interface UploadChunkResponse {
+  receivedBytes: number;
+}
+
+export interface StagedFileRef {
+  staged: string;
+}
+
+export interface StagedFileJson {
+  staged: string;
+  name: string;
+  sizeBytes: number;
+  /** SHA-256 of the bytes, hex. */
+  sha256: string;
+}
+
+export interface PreviewImportRequest extends ImportProfileOptions {
+  staged: string;
+  field?: string;
+  profile?: string;
+  /** Data rows to show, default 20, at most 200. */
+  rows?: number;
+}
+
+export interface PreviewRow {
+  line: number;
+  /** The row's cells as split, before any interpretation. */
+  cells: string[];
+  /** How the import would read the row: a reading, or why it would be rejected. */
+  reading: { well: string; time: string; values: ImportedValues } | null;
+  rejected: string | null;
+}
+
+export interface PreviewImportResponse {
+  file: StagedFileJson;
+  /** What the reader decided (roles, units, dialect, encoding, zone); null when it could not read the file. */
+  info: CsvFileInfo | null;
+  rows: PreviewRow[];
+  /** Wells the previewed rows name that the field lacks. */
+  unknownWells: string[];
+  /** Why the file cannot be read as it stands (e.g. dates that need a stated order), naming line and field. */
+  problem: { message: string; line: number | null; field: string | null } | null;
+}
+
+export interface StartImportRequest extends Omit<ImportCsvRequest, 'file'> {
+  staged: string;
+}
+
+export interface ImportJobRef {
+  jobId: string;
+}
+
+export type ImportJobState = 'running' | 'complete' | 'failed' | 'cancelled';
+
+export interface ImportJobJson {
+  jobId: string;
+  state: ImportJobState;
+  file: StagedFileJson;
+  progress: {
+    phase: string;
+    bytesDone: number;
+    totalBytes: number;
+    rowsRead: number;
+  } | null;
+  /** The import's report once it has ended (also for a refused or cancelled one, where there is one). */
+  result: ImportCsvResponse | null;
+  /** A refusal of the file or its options as one line naming line and field, or an internal failure. */
+  error: string | null;
+  started: string;
+  finished: string | null;
+}
+
+const STAGED = string({ maxLength: 100 });
+
+export const BEGIN_UPLOAD_REQUEST = object({
+  name: string({ maxLength: 255 }),
+  sizeBytes: number({ integer: true, min: 0, max: 64 * 1024 ** 3 }),
+}) as Schema<BeginUploadRequest>;
+
+export const UPLOAD_CHUNK_REQUEST = object({
+  staged: STAGED,
+  offset: number({ integer: true, min: 0 }),
+  base64: string({ allowEmpty: true, maxLength: Math.ceil(UPLOAD_CHUNK_BYTES / 3) * 4 }),
+}) as Schema<UploadChunkRequest>;
+
+export const STAGED_FILE_REF = object({ staged: STAGED }) as Schema<StagedFileRef>;
+
+export const PREVIEW_IMPORT_REQUEST = object({
+  ...PROFILE_SHAPE,
+  staged: STAGED,
+  field: optional(NAME),
+  profile: optional(NAME),
+  rows: optional(number({ integer: true, min: 1, max: 200 })),
+}) as Schema<PreviewImportRequest>;
+
+export const START_IMPORT_REQUEST = object({
+  ...PROFILE_SHAPE,
+  staged: STAGED,
+  field: optional(NAME),
+  createWells: optional(boolean()),
+  force: optional(boolean()),
+  profile: optional(NAME),
+  saveProfile: optional(NAME),
+}) as Schema<StartImportRequest>;
+
+export const IMPORT_JOB_REF = object({ jobId: string({ maxLength: 100 }) }) as Schema<ImportJobRef>;

@@ -6,9 +6,26 @@
 import type { BuildDemoResponse } from './demo.js';
 import { EXPORT_REQUEST, type ExportRequest, type ExportResponse } from './exports.js';
 import {
-  FIT_STATUS_REQUEST, FIT_WELL_REQUEST, FORECAST_WELL_REQUEST,
+  ECONOMIC_LIMIT, FIT_STATUS_REQUEST, FIT_WELL_REQUEST, FORECAST_WELL_REQUEST,
   type FitStatusResponse, type FitWellRequest, type FitWellResponse, type ForecastWellRequest, type ForecastWellResponse,
 } from './fits.js';
+import {
+  BEGIN_UPLOAD_REQUEST, GET_IMPORT_REQUEST, IMPORT_JOB_REF, IMPORT_PROFILE_REF, LIST_CONFLICTS_REQUEST, LIST_IMPORT_PROFILES_REQUEST,
+  LIST_IMPORTS_REQUEST, PREVIEW_IMPORT_REQUEST, RESOLVE_CONFLICTS_REQUEST, SAVE_IMPORT_PROFILE_REQUEST, STAGED_FILE_REF,
+  START_IMPORT_REQUEST, UPLOAD_CHUNK_REQUEST,
+  type BeginUploadRequest, type BeginUploadResponse, type GetImportRequest, type ImportJobJson, type ImportJobRef,
+  type ImportProfileJson, type ImportProfileRef, type ImportRecordJson, type ListConflictsRequest, type ListConflictsResponse,
+  type ListImportProfilesResponse, type ListImportsRequest, type ListImportsResponse, type PreviewImportRequest,
+  type PreviewImportResponse, type ResolveConflictsRequest, type ResolveConflictsResponse, type SaveImportProfileRequest,
+  type StagedFileJson, type StagedFileRef, type StartImportRequest, type UploadChunkRequest, type UploadChunkResponse,
+} from './imports.js';
+import {
+  FIELD_OVERVIEW_REQUEST, WELL_SERIES_REQUEST,
+  type FieldOverviewRequest, type FieldOverviewResponse, type WellSeriesRequest, type WellSeriesResponse,
+} from './overview.js';
+import {
+  ABOUT_FIELD_LOG_REQUEST, GET_SETTINGS_REQUEST, updateSettingsRequest, type AboutFieldLogJson, type SettingsJson, type UpdateSettingsRequest,
+} from './settings.js';
 import {
   AUDIT_REQUEST, DELETE_READING_REQUEST, EDIT_READING_REQUEST, GET_READING_REQUEST, LIST_READINGS_REQUEST, LOG_READING_REQUEST,
   type AuditRequest, type AuditResponse, type DeleteReadingRequest, type DeleteReadingResponse, type EditReadingRequest,
@@ -55,7 +72,28 @@ export interface TauwellServices {
   reservoirTheory(request: ReservoirTheoryRequest): ReservoirTheoryResponse;
   // the invented demo field
   buildDemo(request?: Record<string, never>): BuildDemoResponse;
-  // CSV import: wired in by src/main/services/imports.ts (its request schema joins REQUEST_SCHEMAS below).
+  // settings of the field log (display units, zone, economic limits, background heat flow)
+  getSettings(request?: Record<string, never>): SettingsJson;
+  updateSettings(request: UpdateSettingsRequest): SettingsJson;
+  aboutFieldLog(request?: Record<string, never>): AboutFieldLogJson;
+  // what the screens show at a glance
+  fieldOverview(request?: FieldOverviewRequest): FieldOverviewResponse;
+  wellSeries(request: WellSeriesRequest): WellSeriesResponse;
+  // CSV import: a staged copy of the user's file, its preview, the import as a job, its records
+  beginUpload(request: BeginUploadRequest): BeginUploadResponse;
+  uploadChunk(request: UploadChunkRequest): UploadChunkResponse;
+  finishUpload(request: StagedFileRef): StagedFileJson;
+  previewImport(request: PreviewImportRequest): PreviewImportResponse | Promise<PreviewImportResponse>;
+  startImport(request: StartImportRequest): ImportJobJson;
+  importJob(request: ImportJobRef): ImportJobJson;
+  cancelImport(request: ImportJobRef): ImportJobJson;
+  listImports(request?: ListImportsRequest): ListImportsResponse;
+  getImport(request: GetImportRequest): ImportRecordJson;
+  listConflicts(request?: ListConflictsRequest): ListConflictsResponse;
+  resolveConflicts(request: ResolveConflictsRequest): ResolveConflictsResponse;
+  saveImportProfile(request: SaveImportProfileRequest): ImportProfileJson;
+  loadImportProfile(request: ImportProfileRef): ImportProfileJson;
+  listImportProfiles(request?: Record<string, never>): ListImportProfilesResponse;
 }
 
 export type ServiceName = keyof TauwellServices;
@@ -82,4 +120,23 @@ export const REQUEST_SCHEMAS: { readonly [K in ServiceName]: Schema<unknown> } =
   listReservoirVersions: RESERVOIR_REF,
   reservoirTheory: RESERVOIR_THEORY_REQUEST,
   buildDemo: object({}),
+  getSettings: GET_SETTINGS_REQUEST,
+  updateSettings: updateSettingsRequest(ECONOMIC_LIMIT),
+  aboutFieldLog: ABOUT_FIELD_LOG_REQUEST,
+  fieldOverview: FIELD_OVERVIEW_REQUEST,
+  wellSeries: WELL_SERIES_REQUEST,
+  beginUpload: BEGIN_UPLOAD_REQUEST,
+  uploadChunk: UPLOAD_CHUNK_REQUEST,
+  finishUpload: STAGED_FILE_REF,
+  previewImport: PREVIEW_IMPORT_REQUEST,
+  startImport: START_IMPORT_REQUEST,
+  importJob: IMPORT_JOB_REF,
+  cancelImport: IMPORT_JOB_REF,
+  listImports: LIST_IMPORTS_REQUEST,
+  getImport: GET_IMPORT_REQUEST,
+  listConflicts: LIST_CONFLICTS_REQUEST,
+  resolveConflicts: RESOLVE_CONFLICTS_REQUEST,
+  saveImportProfile: SAVE_IMPORT_PROFILE_REQUEST,
+  loadImportProfile: IMPORT_PROFILE_REF,
+  listImportProfiles: LIST_IMPORT_PROFILES_REQUEST,
 };
