@@ -4,7 +4,9 @@
  * three production wells and an injection well, twelve years of weekly readings (the history is
  * loaded in one transaction without an audit row per reading, as a migration of old records would
  * be), and then the operator's corrections made through the services, so they sit in the audit log
- * with who, why and the values before and after.
+ * with who, why and the values before and after. Last, the settings of the demo scenario: its
+ * economic limit, a production temperature of DEMO_LIMIT_TEMPERATURE_C (the limit `npm run demo`
+ * forecasts KR-3 to), also through the services and so in the audit log.
  */
 import type { BuildDemoResponse } from '../../shared/contract/demo.js';
 import { normaliseReading } from '../../shared/contract/reading-rules.js';
@@ -17,10 +19,14 @@ import type { FieldDb } from '../db/database.js';
 import { createContext } from './context.js';
 import { readingServices } from './readings.js';
 import { reservoirServices } from './reservoirs.js';
+import { settingsServices } from './settings.js';
 import { wellServices } from './wells.js';
 
 /** Who made the demo's entries and corrections: an invented operator, so no real person is named. */
 export const DEMO_OPERATOR = 'Kettle Ridge operator (invented)';
+
+/** The demo scenario's economic limit, °C (package.json: `npm run demo` forecasts with --limit-temp 115). */
+export const DEMO_LIMIT_TEMPERATURE_C = 115;
 
 export function buildDemo(fdb: FieldDb): BuildDemoResponse {
   const ctx = createContext(fdb, { who: DEMO_OPERATOR });
@@ -73,6 +79,10 @@ export function buildDemo(fdb: FieldDb): BuildDemoResponse {
       if (c.entered.status !== undefined) edit.status = right.status;
       readings.editReading(edit);
     }
+    settingsServices(ctx).updateSettings({
+      economicLimit: { kind: 'production-temperature', temperatureC: DEMO_LIMIT_TEMPERATURE_C },
+      reason: 'the invented demo scenario\'s economic limit',
+    });
 
     const count = (sql: string): number => (fdb.db.prepare(sql).get() as { n: number }).n;
     return {

@@ -1,6 +1,7 @@
 /**
  * Fits of one well from its stored readings, each stored with the fingerprint of the data it used,
- * and whether the latest stored fit is still current.
+ * and whether the latest stored fit is still current. Computing a fit and storing it are two steps
+ * (computeFit, storeFit) so that a view (fieldOverview) can run the same fit without leaving a record.
  */
 import { FIT_STATUS_REQUEST, FIT_WELL_REQUEST, type FitPoint, type FitStatusResponse, type FitWellRequest, type FitWellResponse, type ModelChoice } from '../../shared/contract/fits.js';
 import { instantMs, isoOf, validate } from '../../shared/contract/schema.js';
@@ -12,7 +13,7 @@ import { PRODUCED_MASS_RULE, buildWellSeries, type WellSeries } from '../../shar
 import type { Reading } from '../db/readings.js';
 import type { Well } from '../db/wells.js';
 import type { ServiceContext } from './context.js';
-import { FitStore, dataFingerprint, engineVersion, resultJsonText } from './fit-store.js';
+import { FitStore, dataFingerprint, engineVersion, resultJsonText, type StoredFit } from './fit-store.js';
 import { wellInfo } from './views.js';
 
 /** What a fit of a well starts from: its readings as a series, and the fingerprint of that data. */
@@ -29,7 +30,17 @@ export interface PreparedSeries {
   windowToMs: number | null;
 }
 
-export function prepareSeries(ctx: ServiceContext, well: Well, basis: Basis, windowFromMs: number | null, windowToMs: number | null): PreparedSeries {
+/** Time zero of a well's fits and series: its production start if set, else its first live reading. */
+export function timeOriginOf(well: Well, firstLiveMs: number): { originMs: number; originSource: 'production-start' | 'first-reading' } {
+  return well.productionStartMs === null
+    ? { originMs: firstLiveMs, originSource: 'first-reading' }
+    : { originMs: well.productionStartMs, originSource: 'production-start' };
+}
+
+/** `liveReadings`: all the well's live readings in time order, when the caller has read them already (the overview). */
+export function prepareSeries(
+  ctx: ServiceContext, well: Well, basis: Basis, windowFromMs: number | null, windowToMs: number | null, liveReadings?: readonly Reading[],
+): PreparedSeries {
   if (well.kind !== 'production') {
     throw new InputError(`${well.name} is an injection well; decline fits are made of production wells`, { field: 'well' });
   }
@@ -40,10 +51,11 @@ export function prepareSeries(ctx: ServiceContext, well: Well, basis: Basis, win
   if (windowFromMs !== null && windowToMs !== null && windowFromMs > windowToMs) {
     throw new InputError(`the window ends (${isoOf(windowToMs)}) before it starts (${isoOf(windowFromMs)})`, { field: 'to' });
   }
-  const history = ctx.readings.listLive(well.id, windowToMs === null ? {} : { toMs: windowToMs });
+  const history = liveReadings === undefined
+    ? ctx.readings.listLive(well.id, windowToMs === null ? {} : { toMs: windowToMs })
+    : liveReadings.filter((r) => windowToMs === null || r.timeMs <= windowToMs);
   if (history.length === 0) throw new InputError(`${well.name} has no readings${windowToMs === null ? '' : ` up to ${isoOf(windowToMs)}`}`, { field: 'well' });
-  const originSource = well.productionStartMs === null ? 'first-reading' : 'production-start';
-  const originMs = well.productionStartMs ?? history[0].timeMs;
+  const { originMs, originSource } = timeOriginOf(well, history[0].timeMs);
   const series = buildWellSeries(history, {
     basis, referenceTemperatureC: tref, originMs,
     ...(windowFromMs !== null ? { fromMs: windowFromMs } : {}),
@@ -58,23 +70,33 @@ export function prepareSeries(ctx: ServiceContext, well: Well, basis: Basis, win
   return { well, referenceTemperatureC: tref, originMs, originSource, history, series, fingerprint, windowFromMs, windowToMs };
 }
 
+/** A fit as computed, before it is stored: all that fitWell answers but the stored record. */
+export type ComputedFit = Omit<FitWellResponse, 'stored'>;
+
+export interface FitRun {
+  response: ComputedFit;
+  prepared: PreparedSeries;
+}
+
 export function fitServices(ctx: ServiceContext) {
   const store = new FitStore(ctx.fdb);
 
-  function runFit(request: FitWellRequest): { response: FitWellResponse; prepared: PreparedSeries } {
-    const req = validate(FIT_WELL_REQUEST, request);
+  /**
+   * The one fit of a well: fitWell and forecastWell store its result with storeFit; fieldOverview
+   * does not store it (only an explicit fit leaves a record). `req` is already checked;
+   * `liveReadings` as for prepareSeries.
+   */
+  function computeFit(req: FitWellRequest, liveReadings?: readonly Reading[]): FitRun {
     const { well } = ctx.well(req);
     const basis = req.basis ?? 'time';
     const model: ModelChoice = req.model ?? 'exponential';
-    const prepared = prepareSeries(ctx, well, basis, req.from === undefined ? null : instantMs(req.from), req.to === undefined ? null : instantMs(req.to));
+    const fromMs = req.from === undefined ? null : instantMs(req.from);
+    const toMs = req.to === undefined ? null : instantMs(req.to);
+    const prepared = prepareSeries(ctx, well, basis, fromMs, toMs, liveReadings);
     const s = prepared.series;
     const decline: DeclineSeries = { basis, x: s.x, theta: s.theta, include: s.include };
     const fit = model === 'auto' ? fitAuto(decline) : fitDecline(decline, model);
-    const stored = store.insert({
-      wellId: well.id, model, basis, windowFromMs: prepared.windowFromMs, windowToMs: prepared.windowToMs,
-      resultJson: resultJsonText(fit), fingerprint: prepared.fingerprint, engineVersion: engineVersion(), createdMs: ctx.now(),
-    });
-    const points: FitPoint[] = s.readings.map((r, i) => ({
+    const points: FitPoint[] = req.points === false ? [] : s.readings.map((r, i) => ({
       readingId: r.id,
       time: isoOf(r.timeMs),
       x: s.x[i],
@@ -82,7 +104,7 @@ export function fitServices(ctx: ServiceContext) {
       included: s.include[i] === 1,
       excludedBecause: s.excludedBecause[i],
     }));
-    const response: FitWellResponse = {
+    const response: ComputedFit = {
       well: wellInfo(ctx, well),
       model,
       basis,
@@ -96,17 +118,34 @@ export function fitServices(ctx: ServiceContext) {
       meanMassFlowKgPerS: s.meanMassFlowKgPerS,
       meanProductionTemperatureC: s.meanProductionTemperatureC,
       producedMass: s.producedMass === null ? null : { ...s.producedMass, rule: PRODUCED_MASS_RULE },
-      stored: { fitId: stored.id, fingerprint: stored.fingerprint, engineVersion: stored.engineVersion, createdAt: isoOf(stored.createdMs) },
       assumptions: fitAssumptions(prepared),
     };
     return { response, prepared };
   }
 
+  /** Stores a computed fit with the fingerprint of its data; the response gains the stored record. */
+  function storeFit(run: FitRun): FitWellResponse {
+    const { response, prepared } = run;
+    const stored = store.insert({
+      wellId: prepared.well.id, model: response.model, basis: response.basis, windowFromMs: prepared.windowFromMs, windowToMs: prepared.windowToMs,
+      resultJson: resultJsonText(response.fit), fingerprint: prepared.fingerprint, engineVersion: engineVersion(), createdMs: ctx.now(),
+    });
+    const { assumptions, ...rest } = response;
+    return {
+      ...rest,
+      stored: { fitId: stored.id, fingerprint: stored.fingerprint, engineVersion: stored.engineVersion, createdAt: isoOf(stored.createdMs) },
+      assumptions,
+    };
+  }
+
   return {
-    runFit,
+    computeFit,
+    storeFit,
+    /** The latest stored fit of a well, or undefined. */
+    latestStored: (wellId: number): StoredFit | undefined => store.latest(wellId),
 
     fitWell(request: FitWellRequest): FitWellResponse {
-      return runFit(request).response;
+      return storeFit(computeFit(validate(FIT_WELL_REQUEST, request)));
     },
 
     fitStatus(request: WellRef): FitStatusResponse {

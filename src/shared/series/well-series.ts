@@ -20,8 +20,11 @@
  *   PRODUCED_MASS_RULE: string
  *   interface SeriesReading { id; timeMs; productionTemperatureC; normalisedMassFlowKgPerS; status; flags }
  *   isFlaggedOut(flags): boolean
+ *   exclusionOf(timeMs, originMs, status, flaggedOut, hasTemperature): ExclusionReason | null   the exclusion rule
  *   buildWellSeries(history, options): WellSeries     history: live readings in time order
- *   producedMassAt(history, originMs, timesMs): { massKg: Float64Array; counted; skipped }
+ *   class ProducedMassCounter(originMs)                the produced-mass rule, one reading at a time (no per-reading objects)
+ *     add(timeMs, status, flaggedOut, flowKgPerS | null): boolean; massAt(timeMs); totalKg; counted; skipped
+ *   producedMassAt(history, originMs, timesMs): { massKg: Float64Array; totalKg; counted; skipped }
  *   meanFlowOverYear(history, endMs): { meanKgPerS: number | null; readings: number }
  */
 import type { ExclusionReason, FitCounts } from '../contract/fits.js';
@@ -76,6 +79,15 @@ export function isFlaggedOut(flags: readonly string[]): boolean {
   return flags.some((f) => FIT_EXCLUDING_FLAGS.includes(f));
 }
 
+/** Why a fit leaves a reading out, or null when it enters: the rule of the module comment, in its order. */
+export function exclusionOf(timeMs: number, originMs: number, status: string, flaggedOut: boolean, hasTemperature: boolean): ExclusionReason | null {
+  if (timeMs < originMs) return 'before-time-zero';
+  if (status !== 'producing') return 'not-producing';
+  if (flaggedOut) return 'flagged';
+  if (!hasTemperature) return 'no-temperature';
+  return null;
+}
+
 export function buildWellSeries(history: readonly SeriesReading[], options: WellSeriesOptions): WellSeries {
   const from = options.fromMs ?? -Infinity;
   const to = options.toMs ?? Infinity;
@@ -95,12 +107,12 @@ export function buildWellSeries(history: readonly SeriesReading[], options: Well
     const r = readings[i];
     x[i] = mass === null ? (r.timeMs - options.originMs) / 1000 : mass.massKg[i];
     theta[i] = r.productionTemperatureC === null ? NaN : r.productionTemperatureC - options.referenceTemperatureC;
-    let why: ExclusionReason | null = null;
-    if (r.timeMs < options.originMs) { why = 'before-time-zero'; counts.excludedBeforeTimeZero++; }
-    else if (r.status !== 'producing') { why = 'not-producing'; counts.excludedNotProducing++; }
-    else if (isFlaggedOut(r.flags)) { why = 'flagged'; counts.excludedFlagged++; }
-    else if (r.productionTemperatureC === null) { why = 'no-temperature'; counts.excludedNoTemperature++; }
+    const why = exclusionOf(r.timeMs, options.originMs, r.status, isFlaggedOut(r.flags), r.productionTemperatureC !== null);
     excludedBecause.push(why);
+    if (why === 'before-time-zero') counts.excludedBeforeTimeZero++;
+    else if (why === 'not-producing') counts.excludedNotProducing++;
+    else if (why === 'flagged') counts.excludedFlagged++;
+    else if (why === 'no-temperature') counts.excludedNoTemperature++;
     if (why !== null) continue;
     include[i] = 1;
     counts.included++;
@@ -124,49 +136,86 @@ export function buildWellSeries(history: readonly SeriesReading[], options: Well
 }
 
 /**
+ * The produced-mass rule of the module comment, fed one reading at a time in time order (the whole
+ * live history, flagged readings included: the counter leaves them out itself), then asked for M at
+ * any instant. Keeps three growing Float64Arrays, so a million readings need no object each.
+ */
+export class ProducedMassCounter {
+  /** The trusted flow history from time zero on: times, the flow each stands for (0 = none), and M there; `n` used. */
+  private times: Float64Array = new Float64Array(1024);
+  private flows: Float64Array = new Float64Array(1024);
+  private cumulative: Float64Array = new Float64Array(1024);
+  private n = 0;
+  private previousMs: number;
+  /** M at the last trusted reading. */
+  totalKg = 0;
+  counted = 0;
+  skipped = 0;
+
+  constructor(private readonly originMs: number) {
+    this.previousMs = originMs;
+  }
+
+  /** True when the reading joined the flow history; then `totalKg` is M at it (what massAt gives for its instant). */
+  add(timeMs: number, status: string, flaggedOut: boolean, flowKgPerS: number | null): boolean {
+    if (timeMs < this.originMs || flaggedOut) return false;
+    const dtS = (timeMs - this.previousMs) / 1000;
+    let flow = 0;
+    if (status === 'producing') {
+      if (flowKgPerS === null) { if (dtS > 0) this.skipped++; }
+      else { flow = flowKgPerS; if (dtS > 0) this.counted++; }
+    }
+    this.totalKg += flow * dtS;
+    if (this.n === this.times.length) this.grow();
+    this.times[this.n] = timeMs;
+    this.flows[this.n] = flow;
+    this.cumulative[this.n] = this.totalKg;
+    this.n++;
+    this.previousMs = timeMs;
+    return true;
+  }
+
+  /** M at `t`: at a trusted reading its own M; between two, M of the first plus ṁ of the second times the time since. */
+  massAt(t: number): number {
+    const { times, flows, cumulative, originMs, n } = this;
+    if (t <= originMs || n === 0) return 0;
+    // First trusted reading at or after t (binary search).
+    let lo = 0, hi = n;
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      if (times[mid] < t) lo = mid + 1;
+      else hi = mid;
+    }
+    if (lo === n) return cumulative[n - 1];
+    if (times[lo] === t) return cumulative[lo];
+    const startMs = lo === 0 ? originMs : times[lo - 1];
+    const before = lo === 0 ? 0 : cumulative[lo - 1];
+    return before + (flows[lo] * (t - startMs)) / 1000;
+  }
+
+  private grow(): void {
+    const bigger = (a: Float64Array): Float64Array => {
+      const b = new Float64Array(a.length * 2);
+      b.set(a);
+      return b;
+    };
+    this.times = bigger(this.times);
+    this.flows = bigger(this.flows);
+    this.cumulative = bigger(this.cumulative);
+  }
+}
+
+/**
  * Cumulative produced mass since `originMs` at each of `timesMs` (any order), by the rule in the
  * module comment; `totalKg` is the mass at the last trusted reading.
  */
 export function producedMassAt(
   history: readonly SeriesReading[], originMs: number, timesMs: readonly number[],
 ): { massKg: Float64Array; totalKg: number; counted: number; skipped: number } {
-  // The trusted flow history from time zero on: times, the flow each stands for (0 = none), and M there.
-  const times: number[] = [];
-  const flows: number[] = [];
-  const cumulative: number[] = [];
-  let m = 0, previous = originMs, counted = 0, skipped = 0;
-  for (const r of history) {
-    if (r.timeMs < originMs || isFlaggedOut(r.flags)) continue;
-    const dtS = (r.timeMs - previous) / 1000;
-    let flow = 0;
-    if (r.status === 'producing') {
-      if (r.normalisedMassFlowKgPerS === null) { if (dtS > 0) skipped++; }
-      else { flow = r.normalisedMassFlowKgPerS; if (dtS > 0) counted++; }
-    }
-    m += flow * dtS;
-    times.push(r.timeMs);
-    flows.push(flow);
-    cumulative.push(m);
-    previous = r.timeMs;
-  }
-  const massKg = Float64Array.from(timesMs, (t) => massAt(t, originMs, times, flows, cumulative));
-  return { massKg, totalKg: m, counted, skipped };
-}
-
-function massAt(t: number, originMs: number, times: number[], flows: number[], cumulative: number[]): number {
-  if (t <= originMs || times.length === 0) return 0;
-  // First trusted reading at or after t (binary search).
-  let lo = 0, hi = times.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >>> 1;
-    if (times[mid] < t) lo = mid + 1;
-    else hi = mid;
-  }
-  if (lo === times.length) return cumulative[times.length - 1];
-  if (times[lo] === t) return cumulative[lo];
-  const startMs = lo === 0 ? originMs : times[lo - 1];
-  const before = lo === 0 ? 0 : cumulative[lo - 1];
-  return before + (flows[lo] * (t - startMs)) / 1000;
+  const counter = new ProducedMassCounter(originMs);
+  for (const r of history) counter.add(r.timeMs, r.status, isFlaggedOut(r.flags), r.normalisedMassFlowKgPerS);
+  const massKg = Float64Array.from(timesMs, (t) => counter.massAt(t));
+  return { massKg, totalKg: counter.totalKg, counted: counter.counted, skipped: counter.skipped };
 }
 
 /**
