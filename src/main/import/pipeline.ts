@@ -54,6 +54,11 @@ export interface StoreCsvOptions {
   onProgress?: (progress: ImportProgress) => void;
   /** Extra facts for the record's options (e.g. the profile the options came from). */
   recordExtra?: Record<string, unknown>;
+  /**
+   * The file's name for the record, the audit log and the messages, when `file` is a copy (a file
+   * a front end uploaded to a staging folder); default `file` itself.
+   */
+  fileName?: string;
 }
 
 export type ImportPhase = 'hashing' | 'reading' | 'checking spikes' | 'committing';
@@ -145,6 +150,7 @@ async function importHashed(
   known: FileHash | HashJob, previous: ImportRow | undefined,
 ): Promise<ImportOutcome> {
   const { field, signal } = options;
+  const fileName = options.fileName ?? file;
   let hash = 'sha256' in known ? known : null;
   const base = (): Pick<ImportOutcome, 'alreadyImportedId' | 'sha256' | 'sizeBytes'> => ({
     alreadyImportedId: previous?.id ?? null, sha256: hash?.sha256 ?? '', sizeBytes: hash?.bytes ?? info.sizeBytes,
@@ -166,7 +172,7 @@ async function importHashed(
   let importId: number;
   try {
     importId = store.begin({
-      fileName: file, fileSize: info.sizeBytes, sha256: hash?.sha256 ?? '', fieldId: field.id,
+      fileName, fileSize: info.sizeBytes, sha256: hash?.sha256 ?? '', fieldId: field.id,
       mapping: info.columns, units: info.units, options: recordOptions, startedMs,
     });
   } catch (err) {
@@ -194,7 +200,7 @@ async function importHashed(
     checkBalance(counts, csv.counts.rowsRead);
     const readCounts = { ...csv.counts };
     const message = accountingText(counts, readCounts.blankRows);
-    run.audit.record({ who: options.who, action: 'import', entity: 'import', entityId: importId, new: { file, sha256: hash.sha256, ...counts }, reason: '' });
+    run.audit.record({ who: options.who, action: 'import', entity: 'import', entityId: importId, new: { file: fileName, sha256: hash.sha256, ...counts }, reason: '' });
     store.finish(importId, counts, 'complete', message, { ...recordOptions, read: readCounts }, fdb.now(), hash.sha256);
     report('committing', importId, info.sizeBytes, info.sizeBytes);
     db.exec('COMMIT');
@@ -209,7 +215,7 @@ async function importHashed(
     const readSoFar = `after ${plural(counts.rowsRead, 'data row')} (${percentOf(bytesDone, info.sizeBytes)} of the file)`;
     const message = cancelled
       ? `cancelled ${readSoFar}; nothing from this file was stored`
-      : `failed ${readSoFar}: ${err instanceof Error ? err.message : String(err)}; nothing from this file was stored`;
+      : `failed ${readSoFar}: ${messageNaming(err, file, fileName)}; nothing from this file was stored`;
     const status = cancelled ? 'cancelled' : 'failed';
     const stored = zeroCounts();
     const finish = db.transaction(() => {
@@ -338,7 +344,7 @@ class StoringRun {
       const created = this.wellsRepo.create({ fieldId: this.field.id, name, kind: 'production' });
       this.audit.record({
         who: this.options.who, action: 'create', entity: 'well', entityId: created.id, new: created,
-        reason: `named by import ${this.importId} (${this.info.file}), created as a production well with createWells`,
+        reason: `named by import ${this.importId} (${this.options.fileName ?? this.info.file}), created as a production well with createWells`,
       });
       this.createdWells.push(created.name);
       w = slot(created.id, created.kind);
@@ -363,7 +369,7 @@ function slot(id: number, kind: WellKind): WellSlot {
   return { id, kind, fromMs: Number.POSITIVE_INFINITY, toMs: Number.NEGATIVE_INFINITY, stored: 0 };
 }
 
-function importedValues(r: Reading): ImportedValues {
+export function importedValues(r: Reading): ImportedValues {
   return {
     productionTemperatureC: r.productionTemperatureC,
     injectionTemperatureC: r.injectionTemperatureC,
@@ -378,6 +384,12 @@ function importedValues(r: Reading): ImportedValues {
     status: r.status,
     note: r.note,
   };
+}
+
+/** An error's message, naming the file as `fileName` when it names the copy at `file`. */
+function messageNaming(err: unknown, file: string, fileName: string): string {
+  if (err instanceof InputError && err.where.file === file && fileName !== file) return new InputError(err.reason, { ...err.where, file: fileName }).message;
+  return err instanceof Error ? err.message : String(err);
 }
 
 /** The options as the caller gave them (not the tuning knobs), for the record. */

@@ -3,7 +3,7 @@
  * imports, list and resolve the conflicts they held back, save and load import profiles.
  *
  *   createImportService(fdb, { who?, now? }): ImportService
- *     importCsv(request, { signal?, onProgress? }): Promise<ImportCsvResponse>
+ *     importCsv(request, { signal?, onProgress?, fileName? }): Promise<ImportCsvResponse>
  *     listImports(request?), getImport({ id }), listConflicts(request?), resolveConflicts(request),
  *     saveImportProfile(request), loadImportProfile({ name }), listImportProfiles()
  *
@@ -32,6 +32,8 @@ export interface ImportControl {
   /** Cancels the import: everything is rolled back and the record says 'cancelled'. */
   signal?: AbortSignal;
   onProgress?: (progress: ImportProgress) => void;
+  /** The name the record keeps when `request.file` is a copy of the user's file (a staged upload). */
+  fileName?: string;
 }
 
 const DEFAULT_LIST_LIMIT = 100;
@@ -55,17 +57,16 @@ export function createImportService(fdb: FieldDb, options: ServiceOptions = {}) 
   return {
     async importCsv(request: ImportCsvRequest, control: ImportControl = {}): Promise<ImportCsvResponse> {
       const req = validate(IMPORT_CSV_REQUEST, request);
-      const fromProfile = req.profile === undefined ? {} : stripName(profiles.loadImportProfile({ name: req.profile }));
-      const merged = mergeOptions(fromProfile, req);
-      const field = fieldFor(ctx, req.field);
+      const { field, merged, csv } = importSetup(ctx, profiles.loadImportProfile, req);
       const outcome = await importReadingsCsv(fdb, req.file, {
         field,
-        csv: readerOptions(merged),
+        csv,
         createWells: req.createWells === true,
         force: req.force === true,
         who: ctx.who,
         ...(control.signal !== undefined ? { signal: control.signal } : {}),
         ...(control.onProgress !== undefined ? { onProgress: control.onProgress } : {}),
+        ...(control.fileName !== undefined ? { fileName: control.fileName } : {}),
         recordExtra: req.profile === undefined ? {} : { profile: req.profile },
       });
       let profileSaved: string | null = null;
@@ -109,6 +110,24 @@ export function createImportService(fdb: FieldDb, options: ServiceOptions = {}) 
 }
 
 export type ImportService = ReturnType<typeof createImportService>;
+
+export interface ImportSetup {
+  field: Field;
+  /** The options given: a saved profile's under the request's own. */
+  merged: ImportProfileOptions;
+  /** The reader's options from them (naive times default to the field's zone in the pipeline). */
+  csv: ReadingsCsvOptions;
+}
+
+/** The field and the options an import of `req` reads its file with (also what a preview shows). */
+export function importSetup(
+  ctx: ServiceContext, loadProfile: (ref: { name: string }) => ImportProfileOptions & { name: string; created: string },
+  req: ImportProfileOptions & { field?: string; profile?: string },
+): ImportSetup {
+  const fromProfile = req.profile === undefined ? {} : stripName(loadProfile({ name: req.profile }));
+  const merged = mergeOptions(fromProfile, req);
+  return { field: fieldFor(ctx, req.field), merged, csv: readerOptions(merged) };
+}
 
 /** The field named, or the log's only one. */
 function fieldFor(ctx: ServiceContext, name: string | undefined): Field {

@@ -3,7 +3,12 @@
  * server) calls these methods, each of which checks its request with the contract's schema
  * (src/shared/contract) and returns the contract's response type.
  *
- *   createServices(fdb: FieldDb, options?: { who?: string; now?: () => number }): Services
+ *   createServices(fdb: FieldDb, options?: { who?, now?, nativeBinding?, stagingDir? }): Services
+ *   closeServices(services): Promise<void>   cancels a running import, removes staged uploads
+ *
+ * The services object holds exactly the contract's methods (REQUEST_SCHEMAS), so that what a
+ * transport can reach is what the contract lists; what else belongs to it (the import jobs'
+ * connection and staging folder) is closed through closeServices.
  */
 import { REQUEST_SCHEMAS, type TauwellServices } from '../../shared/contract/index.js';
 import { validate } from '../../shared/contract/schema.js';
@@ -12,30 +17,57 @@ import { createContext, type ServiceOptions } from './context.js';
 import { buildDemo } from './demo.js';
 import { exportServices } from './exports.js';
 import { fitServices } from './fits.js';
+import { createImportApi, guardBusyWrites } from './import-api.js';
 import { forecastServices } from './forecasts.js';
+import { overviewServices } from './overview.js';
 import { readingServices } from './readings.js';
 import { reservoirServices } from './reservoirs.js';
+import { settingsServices } from './settings.js';
+import { wellSeriesServices } from './well-series.js';
 import { wellServices } from './wells.js';
 
 export type Services = TauwellServices;
 export type { ServiceOptions } from './context.js';
 
-export function createServices(fdb: FieldDb, options: ServiceOptions = {}): Services {
+export interface CreateServicesOptions extends ServiceOptions {
+  /** The SQLite addon the import jobs' second connection loads (the desktop shell's Electron build). */
+  nativeBinding?: string;
+  /** Where uploaded files are staged; default a private folder under the system's temporary folder. */
+  stagingDir?: string;
+}
+
+const closers = new WeakMap<TauwellServices, () => Promise<void>>();
+
+export function createServices(fdb: FieldDb, options: CreateServicesOptions = {}): Services {
   const ctx = createContext(fdb, options);
+  const { close: closeImports, importing, ...importApi } = createImportApi(fdb, options);
   const fits = fitServices(ctx);
+  const forecasts = forecastServices(ctx, fits);
   const services: TauwellServices = {
     ...wellServices(ctx),
     ...readingServices(ctx),
     ...exportServices(ctx),
     fitWell: fits.fitWell,
     fitStatus: fits.fitStatus,
-    ...forecastServices(ctx, fits),
+    forecastWell: forecasts.forecastWell,
     ...reservoirServices(ctx),
     buildDemo: (request = {}) => {
       validate(REQUEST_SCHEMAS.buildDemo, request);
       return buildDemo(fdb);
     },
-    // CSV import: spread the methods of ./imports.ts here (and add them to TauwellServices and REQUEST_SCHEMAS).
+    ...settingsServices(ctx),
+    fieldOverview: overviewServices(ctx, fits, forecasts).fieldOverview,
+    ...wellSeriesServices(ctx),
+    ...importApi,
   };
-  return services;
+  // A write on this connection while an import job holds the write lock is refused in plain words.
+  const guarded = guardBusyWrites(services, importing);
+  closers.set(guarded, closeImports);
+  return guarded;
+}
+
+/** Releases what the services hold besides the field log itself (which its opener closes). */
+export async function closeServices(services: TauwellServices): Promise<void> {
+  await closers.get(services)?.();
+  closers.delete(services);
 }

@@ -3,7 +3,7 @@
  * machine, on 127.0.0.1 only, until Ctrl+C (SIGINT) or SIGTERM; then the field log is closed.
  */
 import { InputError } from '../../../shared/errors.js';
-import { createServices } from '../../services/index.js';
+import { closeServices, createServices } from '../../services/index.js';
 import { startLoopbackServer } from '../../server/index.js';
 import type { CommandSpec, ParsedArgs } from '../args.js';
 import { DB_OPTION, WHO_OPTION, openFieldLog, whoOf } from '../db-access.js';
@@ -38,8 +38,8 @@ export async function serve(args: ParsedArgs, io: CliIo, waitForStop: () => Prom
   const port = args.integer('port', 0);
   if (port !== undefined && port > 65535) throw new InputError(`must be a whole number from 0 to 65535 (got ${port})`, { field: '--port' });
   const fdb = openFieldLog(args, io);
+  const services = createServices(fdb, { who: whoOf(args) });
   try {
-    const services = createServices(fdb, { who: whoOf(args) });
     let server;
     try {
       server = await startLoopbackServer({ services, ...(port !== undefined ? { port } : {}), log: (text) => io.stderr.write(text) });
@@ -56,6 +56,7 @@ export async function serve(args: ParsedArgs, io: CliIo, waitForStop: () => Prom
     io.stdout.write(`tauwell serve: stopped (${signal}); field log closed\n`);
     return 0;
   } finally {
+    await closeServices(services);
     fdb.close();
   }
 }
