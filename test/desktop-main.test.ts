@@ -23,6 +23,8 @@ const h = vi.hoisted(() => {
     setWindowOpenHandler(fn: Listener) {
       this.windowOpenHandler = fn;
     }
+    reload() {}
+    send() {}
     /** Emits `name` with a fresh event and says whether any listener prevented it. */
     emit(name: string, ...args: unknown[]): boolean {
       let prevented = false;
@@ -50,6 +52,7 @@ const h = vi.hoisted(() => {
     permissionCheck: undefined as Listener | undefined,
     beforeRequest: undefined as Listener | undefined,
     headersReceived: undefined as Listener | undefined,
+    on: vi.fn(),
     setPermissionRequestHandler(fn: Listener) { session.permissionRequest = fn; },
     setPermissionCheckHandler(fn: Listener) { session.permissionCheck = fn; },
     webRequest: {
@@ -68,7 +71,7 @@ const h = vi.hoisted(() => {
     requestSingleInstanceLock: () => app.lock,
     whenReady: () => Promise.resolve(),
     on: (name: string, fn: Listener) => appListeners.set(name, fn),
-    getPath: (name: string) => (name === 'userData' ? app.userData : ''),
+    getPath: (name: string) => (name === 'userData' ? app.userData : name === 'documents' ? join(app.userData, 'Documents') : ''),
     getAppPath: () => app.appRoot,
     getVersion: () => '0.1.0',
     isPackaged: true,
@@ -77,8 +80,10 @@ const h = vi.hoisted(() => {
   return {
     FakeWindow, session, handlers, app, appListeners, exposed,
     ipcMain: { handle: vi.fn((channel: string, fn: Listener) => handlers.set(channel, fn)), removeHandler: vi.fn((channel: string) => handlers.delete(channel)) },
-    ipcRenderer: { invoke: vi.fn(async () => ({ ok: true, value: 'sent' })) },
-    dialog: { showErrorBox: vi.fn() },
+    ipcRenderer: { invoke: vi.fn(async () => ({ ok: true, value: 'sent' })), on: vi.fn(), removeListener: vi.fn() },
+    dialog: { showErrorBox: vi.fn(), showMessageBox: vi.fn(async () => ({ response: 0 })) },
+    Menu: { buildFromTemplate: vi.fn((template: unknown) => template), setApplicationMenu: vi.fn() },
+    shell: { openPath: vi.fn(async () => ''), showItemInFolder: vi.fn() },
   };
 });
 
@@ -89,6 +94,8 @@ vi.mock('electron', () => ({
   ipcRenderer: h.ipcRenderer,
   session: { defaultSession: h.session },
   dialog: h.dialog,
+  Menu: h.Menu,
+  shell: h.shell,
   contextBridge: { exposeInMainWorld: (key: string, api: unknown) => h.exposed.set(key, api) },
 }));
 
@@ -249,7 +256,7 @@ describe('IPC (checklist item 17: validate the sender of every IPC message)', ()
 });
 
 describe('the preload bridge (checklist item 20: do not expose Electron APIs to untrusted content)', () => {
-  it('exposes only invoke for the allowlist, and the version', async () => {
+  it('exposes only invoke for the allowlist, the menu\'s screen requests, and the version', async () => {
     process.argv.push('--tauwell-version=9.9.9');
     try {
       vi.resetModules();
@@ -259,7 +266,7 @@ describe('the preload bridge (checklist item 20: do not expose Electron APIs to 
     }
     const bridge = h.exposed.get('tauwell') as { version: string; invoke: (c: unknown, p: unknown) => Promise<unknown> };
     expect([...h.exposed.keys()]).toEqual(['tauwell']);
-    expect(Object.keys(bridge).sort()).toEqual(['invoke', 'version']);
+    expect(Object.keys(bridge).sort()).toEqual(['invoke', 'onNavigate', 'version']);
     expect(bridge.version).toBe('9.9.9');
     expect(Object.isFrozen(bridge)).toBe(true);
     expect(await bridge.invoke('tauwell:listWells', {})).toEqual({ ok: true, value: 'sent' });

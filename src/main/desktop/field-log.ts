@@ -1,6 +1,7 @@
 /**
- * The desktop app's field log: `tauwell.sqlite` in Electron's userData folder, built from the
- * INVENTED demo field the first time, so a new user sees data at once.
+ * The desktop app's field log: by default `tauwell.sqlite` in Electron's userData folder, built from
+ * the INVENTED demo field the first time, so a new user sees data at once; File → New…/Open… open
+ * any other file (log-switch.ts).
  *
  * better-sqlite3 is a native addon compiled for one ABI. The Node build in node_modules serves the
  * tests and the command line; Electron needs a build of its own, kept apart at
@@ -10,9 +11,12 @@
  *   FIELD_LOG_FILE, ELECTRON_ADDON
  *   electronAddonPath(appRoot): string | undefined
  *   openDesktopFieldLog(folder, { nativeBinding? }): { fdb, file, builtDemo }
+ *   openFieldLogFile(file, { nativeBinding?, demoWhenNew? }): { fdb, file, builtDemo }
+ *   openFailureDetail(error): string
  */
 import { existsSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
+import { InputError } from '../../shared/errors.js';
 import { openDatabase, type FieldDb } from '../db/database.js';
 import { createServices } from '../services/index.js';
 
@@ -33,11 +37,19 @@ export interface DesktopFieldLog {
   builtDemo: boolean;
 }
 
+/** The default field log in `folder` (userData), built from the demo when it is new. */
 export function openDesktopFieldLog(folder: string, options: { nativeBinding?: string } = {}): DesktopFieldLog {
-  const file = join(folder, FIELD_LOG_FILE);
+  return openFieldLogFile(join(folder, FIELD_LOG_FILE), { ...options, demoWhenNew: true });
+}
+
+/**
+ * Any field log file (File → New…/Open…). A new file is an empty, migrated log unless
+ * `demoWhenNew`; an existing one is upgraded by openDatabase, which copies it aside first.
+ */
+export function openFieldLogFile(file: string, options: { nativeBinding?: string; demoWhenNew?: boolean } = {}): DesktopFieldLog {
   const isNew = !existsSync(file);
   const fdb = openDatabase(file, options.nativeBinding !== undefined ? { nativeBinding: options.nativeBinding } : {});
-  if (!isNew) return { fdb, file, builtDemo: false };
+  if (!isNew || options.demoWhenNew !== true) return { fdb, file, builtDemo: false };
   try {
     createServices(fdb).buildDemo();
   } catch (e) {
@@ -47,4 +59,13 @@ export function openDesktopFieldLog(folder: string, options: { nativeBinding?: s
     throw e;
   }
   return { fdb, file, builtDemo: true };
+}
+
+/**
+ * What the user reads when a log does not open. An InputError names the file and what is wrong
+ * with it; anything else happened below the file, most likely an addon built for Node, not Electron.
+ */
+export function openFailureDetail(e: unknown): string {
+  if (e instanceof InputError) return e.message;
+  return `${e instanceof Error ? e.message : String(e)}\n\nThe SQLite addon may be the Node build: make the Electron build at ${ELECTRON_ADDON} with \`npm run build:electron-sqlite\` (DEVELOPERS.md).`;
 }

@@ -7,7 +7,7 @@
  *
  *   appLocation(indexFile) / devServerLocation(url): AppLocation
  *   windowOptions(preloadPath, version): BrowserWindowConstructorOptions
- *   hardenSession(session, location)     permissions, request filter, CSP header
+ *   hardenSession(session, location)     permissions, request filter (the page's own blob: URLs pass), CSP header
  *   hardenContents(webContents)          navigation, redirects, new windows, webviews
  *   createMainWindow({ preloadPath, location, version }): BrowserWindow
  */
@@ -15,6 +15,7 @@ import { BrowserWindow, type BrowserWindowConstructorOptions, type Session, type
 import { dirname } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { RENDERER_CSP } from '../server/headers.js';
+import { isAppBlobUrl } from './downloads.js';
 
 /** Where the renderer comes from, and which URLs are its own. */
 export interface AppLocation {
@@ -97,7 +98,9 @@ export function windowOptions(preloadPath: string, version: string): BrowserWind
 export function hardenSession(session: Session, location: AppLocation): void {
   session.setPermissionRequestHandler((_contents, _permission, callback) => callback(false));
   session.setPermissionCheckHandler(() => false);
-  session.webRequest.onBeforeRequest((details, callback) => callback({ cancel: !location.isAppResource(details.url) }));
+  // The page's own object URLs stay reachable: its exports are downloads of them (downloads.ts).
+  session.webRequest.onBeforeRequest((details, callback) =>
+    callback({ cancel: !(location.isAppResource(details.url) || isAppBlobUrl(details.url, location)) }));
   session.webRequest.onHeadersReceived((details, callback) => {
     const headers: Record<string, string[]> = {};
     for (const [name, value] of Object.entries(details.responseHeaders ?? {})) {
