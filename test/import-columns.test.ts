@@ -20,6 +20,8 @@ describe('header annotations', () => {
     ['Return temp (K)', 'injection-temperature', 'K'],
     ['Wellhead pressure (kPa)', 'pressure', 'kPa'],
     ['flow_L/s', 'flow', 'L/s'],
+    ['flow_kg_s', 'flow', 'kg/s'], // '_' standing for '/', as in the demo export demo/invented-field.csv
+    ['production_temp_C', 'production-temperature', 'C'],
     ['Temp °F', 'production-temperature', '°F'],
     ['T_prod', 'production-temperature', null], // "prod" is not a unit: the whole header is the name
     ['Time (UTC)', 'time', 'UTC'],

@@ -118,12 +118,16 @@ export function readHeader(text: string): HeaderReading {
   }
   const whole = roleOfName(text);
   if (whole !== null) return { role: whole, annotation: null };
+  // Trailing words, last first: `temp_degC`; a unit spelled with '_' for '/' counts too (`flow_kg_s`).
   const t = text.trim();
-  const cut = Math.max(t.lastIndexOf('_'), t.lastIndexOf(' '));
-  if (cut > 0) {
+  for (let cut = t.length - 1; cut > 0; cut--) {
+    if (t[cut] !== '_' && t[cut] !== ' ') continue;
     const role = roleOfName(t.slice(0, cut));
+    if (role === null || !isUnitRole(role)) continue;
     const suffix = t.slice(cut + 1);
-    if (role !== null && isUnitRole(role) && isUnitOf(suffix, ROLE_QUANTITY[role])) return { role, annotation: suffix };
+    for (const unit of [suffix, suffix.replace(/_/g, '/')]) {
+      if (isUnitOf(unit, ROLE_QUANTITY[role])) return { role, annotation: unit };
+    }
   }
   return { role: null, annotation: null };
 }
