@@ -204,8 +204,8 @@ describe('the data-quality rule (src/main/services/data-quality.ts)', () => {
       productionTemperatureC: 150, normalisedMassFlowKgPerS: 40, status: 'producing', flags: [], ...each(i),
     }));
 
-  it('good: ≥ 26 usable readings, no gap over 35 d in the last year, latest ≤ 14 d old, ≤ 5 % flagged', () => {
-    const q = dataQuality(well(), weekly(30, 7, 3), NOW_MS);
+  it('good: ≥ 26 usable readings, no gap over 35 d in the last year, latest ≤ 14 d behind the field’s, ≤ 5 % flagged', () => {
+    const q = dataQuality(well(), weekly(30, 7, 3), NOW_MS, NOW_MS);
     expect(q).toMatchObject({ mark: 'good', readings: 30, included: 30, excluded: 0, flagged: 0, longestGapDays: 7, daysSinceLatest: 3 });
     expect(q.notes[0]).toBe('meets every condition of good');
     expect(q.notes.at(-1)).toMatch(/^rule: good = ≥ 26 usable readings/);
@@ -214,19 +214,19 @@ describe('the data-quality rule (src/main/services/data-quality.ts)', () => {
   it('fair, each condition of good failing alone', () => {
     const cases: [SeriesReading[], RegExp][] = [
       [weekly(20, 7, 3), /20 usable readings \(fewer than 26\)/],
-      [weekly(30, 7, 30), /latest reading is 30 d old/],
+      [weekly(30, 7, 30), /latest reading is 30 d older than the field’s latest/],
       [weekly(30, 7, 3, (i) => (i % 10 === 0 ? { flags: ['spike'] } : {})), /3 of 30 readings flagged/], // 10 % > 5 %, ≤ 20 %
     ];
     for (const [history, why] of cases) {
-      const q = dataQuality(well(), history, NOW_MS);
+      const q = dataQuality(well(), history, NOW_MS, NOW_MS);
       expect(q.mark).toBe('fair');
       expect(q.notes[0]).toMatch(why);
     }
     // At the edge: 4 of 30 shut in leaves exactly 26 usable readings, still good.
-    expect(dataQuality(well(), weekly(30, 7, 3, (i) => (i < 4 ? { status: 'shut-in' } : {})), NOW_MS)).toMatchObject({ mark: 'good', included: 26 });
+    expect(dataQuality(well(), weekly(30, 7, 3, (i) => (i < 4 ? { status: 'shut-in' } : {})), NOW_MS, NOW_MS)).toMatchObject({ mark: 'good', included: 26 });
     // A 50-day gap inside the last year: fair. 30 readings a week apart, with the middle ones 50 days apart.
     const gap = weekly(30, 7, 3).map((r, i) => (i < 15 ? { ...r, timeMs: r.timeMs - 43 * DAY_MS } : r));
-    const q = dataQuality(well(), gap, NOW_MS);
+    const q = dataQuality(well(), gap, NOW_MS, NOW_MS);
     expect(q.longestGapDays).toBe(50);
     expect(q.mark).toBe('fair');
     expect(q.notes[0]).toMatch(/a gap of 50 d/);
@@ -234,16 +234,25 @@ describe('the data-quality rule (src/main/services/data-quality.ts)', () => {
 
   it('a long gap more than a year before the latest reading does not count against the mark, though it is reported', () => {
     const old = weekly(60, 7, 3).map((r, i) => (i < 5 ? { ...r, timeMs: r.timeMs - 400 * DAY_MS } : r));
-    const q = dataQuality(well(), old, NOW_MS);
+    const q = dataQuality(well(), old, NOW_MS, NOW_MS);
     expect(q.longestGapDays).toBe(407); // 400 d moved back + the 7-day step
     expect(q.mark).toBe('good');
   });
 
+  it('judges a well against the field\'s latest reading, not the clock: an archived log keeps its mark', () => {
+    // The whole field stopped 400 d before NOW_MS (the log is reviewed long after): still good.
+    const archived = weekly(30, 7, 400);
+    const lastMs = archived.at(-1)!.timeMs;
+    expect(dataQuality(well(), archived, lastMs, NOW_MS)).toMatchObject({ mark: 'good', daysSinceLatest: 400 });
+    // The same well when the field's other wells carried on to NOW_MS: 400 d behind, poor.
+    expect(dataQuality(well(), archived, NOW_MS, NOW_MS).mark).toBe('poor');
+  });
+
   it('poor, no-data, and an injection well judged on its unflagged readings', () => {
-    expect(dataQuality(well(), weekly(5, 7, 3), NOW_MS).mark).toBe('poor');
-    expect(dataQuality(well(), weekly(30, 7, 200), NOW_MS).mark).toBe('poor');
-    expect(dataQuality(well(), [], NOW_MS)).toMatchObject({ mark: 'no-data', readings: 0, longestGapDays: null, daysSinceLatest: null });
-    const injection = dataQuality(well('injection'), weekly(30, 7, 3, () => ({ productionTemperatureC: null })), NOW_MS);
+    expect(dataQuality(well(), weekly(5, 7, 3), NOW_MS, NOW_MS).mark).toBe('poor');
+    expect(dataQuality(well(), weekly(30, 7, 200), NOW_MS, NOW_MS).mark).toBe('poor');
+    expect(dataQuality(well(), [], NOW_MS, NOW_MS)).toMatchObject({ mark: 'no-data', readings: 0, longestGapDays: null, daysSinceLatest: null });
+    const injection = dataQuality(well('injection'), weekly(30, 7, 3, () => ({ productionTemperatureC: null })), NOW_MS, NOW_MS);
     expect(injection).toMatchObject({ mark: 'good', included: 0, excluded: 30 });
     expect(injection.notes.join(' ')).toMatch(/injection well, not fitted/);
   });

@@ -4,9 +4,10 @@
  *
  *   good  ≥ 26 usable readings (half a year of weekly readings), no gap longer than 35 days
  *         between readings in the year (365.25 d) up to the latest one, the latest reading at
- *         most 14 days old, and at most 5 % of the readings flagged bad or spike;
+ *         most 14 days older than the field's latest reading, and at most 5 % of the readings
+ *         flagged bad or spike;
  *   fair  ≥ 8 usable readings, no gap longer than 90 days in that year, the latest reading at
- *         most 90 days old, and at most 20 % flagged;
+ *         most 90 days behind the field's, and at most 20 % flagged;
  *   poor  anything else with at least one reading;  no-data  no live reading.
  *
  * "Usable" is what a fit would use: for a production well the readings the fit's exclusion rule
@@ -15,9 +16,14 @@
  * injection well is not fitted, so its usable readings are the ones not flagged. A gap is the time
  * between two consecutive live readings of any status (a shut-in reading is still a reading).
  *
+ * A well falls behind when it stops being logged while the field's other wells are: the mark
+ * compares with the field's latest reading, not with the clock, so that a log reviewed months
+ * after its last entry (an archive, a report read offline) is judged on its own data.
+ * `daysSinceLatest` still says how old the latest reading is today.
+ *
  * Exported API:
  *   QUALITY_RULE, QUALITY_RULE_TEXT
- *   dataQuality(well, history, nowMs): DataQuality    history: the well's live readings in time order
+ *   dataQuality(well, history, fieldLatestMs, nowMs): DataQuality    history: the well's live readings in time order
  */
 import type { DataQuality, QualityMark } from '../../shared/contract/overview.js';
 import { exclusionOf, isFlaggedOut, type SeriesReading } from '../../shared/series/well-series.js';
@@ -34,10 +40,10 @@ export const QUALITY_RULE = {
 } as const;
 
 export const QUALITY_RULE_TEXT =
-  'rule: good = ≥ 26 usable readings, no gap > 35 d in the last year of the log, latest reading ≤ 14 d old, ≤ 5 % flagged; ' +
-  'fair = ≥ 8 usable, no gap > 90 d in that year, latest ≤ 90 d old, ≤ 20 % flagged; poor = anything else with readings';
+  'rule: good = ≥ 26 usable readings, no gap > 35 d in the last year of the log, latest reading ≤ 14 d behind the field’s latest, ≤ 5 % flagged; ' +
+  'fair = ≥ 8 usable, no gap > 90 d in that year, latest ≤ 90 d behind the field’s, ≤ 20 % flagged; poor = anything else with readings';
 
-export function dataQuality(well: Well, history: readonly SeriesReading[], nowMs: number): DataQuality {
+export function dataQuality(well: Well, history: readonly SeriesReading[], fieldLatestMs: number, nowMs: number): DataQuality {
   const n = history.length;
   if (n === 0) {
     return { mark: 'no-data', readings: 0, included: 0, excluded: 0, flagged: 0, longestGapDays: null, daysSinceLatest: null, notes: [`no live reading of ${well.name}`, QUALITY_RULE_TEXT] };
@@ -61,6 +67,7 @@ export function dataQuality(well: Well, history: readonly SeriesReading[], nowMs
   }
   const usable = production ? included : unflagged;
   const recentGapDays = longestRecentGapMs / DAY_MS;
+  const behindDays = Math.max(0, fieldLatestMs - latestMs) / DAY_MS;
   const ageDays = (nowMs - latestMs) / DAY_MS;
   const flaggedShare = flagged / n;
 
@@ -68,7 +75,7 @@ export function dataQuality(well: Well, history: readonly SeriesReading[], nowMs
     const out: string[] = [];
     if (usable < c.minUsable) out.push(`${usable} usable readings (fewer than ${c.minUsable})`);
     if (recentGapDays > c.maxGapDays) out.push(`a gap of ${round1(recentGapDays)} d between readings in the last year of the log (more than ${c.maxGapDays} d)`);
-    if (ageDays > c.maxAgeDays) out.push(`the latest reading is ${round1(ageDays)} d old (more than ${c.maxAgeDays} d)`);
+    if (behindDays > c.maxAgeDays) out.push(`the latest reading is ${round1(behindDays)} d older than the field’s latest (more than ${c.maxAgeDays} d)`);
     if (flaggedShare > c.maxFlaggedShare) out.push(`${flagged} of ${n} readings flagged bad or spike (more than ${c.maxFlaggedShare * 100} %)`);
     return out;
   };

@@ -49,12 +49,12 @@ export function overviewServices(ctx: ServiceContext, fits: Fits, forecasts: For
   const settingsRepo = new SettingsRepository(ctx.fdb);
   const wells = wellServices(ctx);
 
-  function wellRow(summary: WellSummary, well: Well, history: Reading[], settings: ReturnType<typeof readSettings>, nowMs: number): WellOverview {
+  function wellRow(summary: WellSummary, well: Well, history: Reading[], settings: ReturnType<typeof readSettings>, fieldLatestMs: number, nowMs: number): WellOverview {
     const { limit } = economicLimitOf(settings, well.id);
     const row: WellOverview = {
       well: summary, thetaK: latestTheta(well, history), fit: null, theoryTauS: null,
       rechargeFraction: null, rechargeVerdict: null, rechargeInterpretation: null, yearsToLimit: null, endOfLife: null, currentPowerW: null,
-      limit: { ...limit, text: limitWords(limit) }, quality: dataQuality(well, history, nowMs), problem: null,
+      limit: { ...limit, text: limitWords(limit) }, quality: dataQuality(well, history, fieldLatestMs, nowMs), problem: null,
     };
     if (well.kind !== 'production') {
       row.problem = `${well.name} is an injection well: decline fits and forecasts are made of production wells`;
@@ -126,9 +126,10 @@ export function overviewServices(ctx: ServiceContext, fits: Fits, forecasts: For
             const well = ctx.wells.get(summary.id) as Well;
             return { summary, well, history: ctx.readings.listLive(well.id) };
           });
+          const fieldLatestMs = Math.max(-Infinity, ...logs.map((l) => l.history.at(-1)?.timeMs ?? -Infinity));
           return {
             field,
-            wells: logs.map((l) => wellRow(l.summary, l.well, l.history, settings, nowMs)),
+            wells: logs.map((l) => wellRow(l.summary, l.well, l.history, settings, fieldLatestMs, nowMs)),
             output: fieldOutput(logs),
           };
         }),
