@@ -16,6 +16,7 @@ import { IMPORT_COMMAND, importArgv, runImport } from './commands/import.js';
 import { INIT_COMMAND, runInit } from './commands/init.js';
 import { LOG_COMMAND, runLog } from './commands/log.js';
 import { READINGS_COMMAND, runReadings } from './commands/readings.js';
+import { REPORT_COMMAND, runReport } from './commands/report.js';
 import { SERVE_COMMAND, runServe } from './commands/serve.js';
 import { THEORY_COMMAND, runTheory } from './commands/theory.js';
 import { WATER_COMMAND, runWater } from './commands/water.js';
@@ -52,6 +53,7 @@ const COMMANDS: readonly Command[] = [
   { spec: IMPORT_COMMAND, run: runImport, argv: importArgv },
   { spec: CONFLICTS_COMMAND, run: runConflicts },
   { spec: RESOLVE_COMMAND, run: runResolve },
+  { spec: REPORT_COMMAND, run: runReport },
 ];
 
 export async function main(argv: string[], io: Partial<CliIo> = {}): Promise<number> {

@@ -11,6 +11,7 @@
  * connection and staging folder) is closed through closeServices.
  */
 import { REQUEST_SCHEMAS, type TauwellServices } from '../../shared/contract/index.js';
+import type { MakeReportRequest } from '../../shared/contract/reports.js';
 import { validate } from '../../shared/contract/schema.js';
 import type { FieldDb } from '../db/database.js';
 import { createContext, type ServiceOptions } from './context.js';
@@ -21,6 +22,7 @@ import { createImportApi, guardBusyWrites } from './import-api.js';
 import { forecastServices } from './forecasts.js';
 import { overviewServices } from './overview.js';
 import { readingServices } from './readings.js';
+import { createReportService } from './report.js';
 import { reservoirServices } from './reservoirs.js';
 import { settingsServices } from './settings.js';
 import { wellSeriesServices } from './well-series.js';
@@ -59,7 +61,29 @@ export function createServices(fdb: FieldDb, options: CreateServicesOptions = {}
     fieldOverview: overviewServices(ctx, fits, forecasts).fieldOverview,
     ...wellSeriesServices(ctx),
     ...importApi,
+    makeReport: async (request) => {
+      const req = validate(REQUEST_SCHEMAS.makeReport, request) as MakeReportRequest;
+      const model = reports.buildModel({
+        ...(req.well !== undefined ? { well: req.well } : {}),
+        ...(req.field !== undefined ? { field: req.field } : {}),
+        ...(req.units !== undefined ? { units: req.units } : {}),
+      });
+      const paper = req.paper ?? 'a4';
+      const bytes = req.format === 'pdf'
+        ? await reports.renderReportPdf(model, { paper })
+        : Buffer.from(reports.renderReportHtml(model, { paper }), 'utf8');
+      const subject = (req.well ?? req.field ?? 'field').replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '');
+      return {
+        suggestedFileName: `tauwell-${subject}-${model.meta.generatedAt.slice(0, 10)}.${req.format}`,
+        mediaType: req.format === 'pdf' ? 'application/pdf' : 'text/html',
+        base64: bytes.toString('base64'),
+        sizeBytes: bytes.length,
+        generatedAt: model.meta.generatedAt,
+      };
+    },
   };
+  // The report gathers its data through these very services, as a screen would.
+  const reports = createReportService(services, fdb);
   // A write on this connection while an import job holds the write lock is refused in plain words.
   const guarded = guardBusyWrites(services, importing);
   closers.set(guarded, closeImports);

@@ -3,6 +3,7 @@
  * theoretical, recharge, years to the economic limit, data quality) and its thermal output week by
  * week. Rows and facts are built in field-model.ts; this module only draws them.
  */
+import { reportActions } from '../app/report-action.js';
 import '../styles/field.css';
 import type { Wire } from '../../shared/contract/channels.js';
 import type { FieldOverview, FieldOverviewResponse } from '../../shared/contract/overview.js';
@@ -73,7 +74,8 @@ function fieldSection(f: Wire<FieldOverview>, overview: Wire<FieldOverviewRespon
   const display = app.display(f.field.timeZone);
   const section = h('section', { class: 'field-section', 'aria-labelledby': `field-${f.field.id}` },
     h('h2', { id: `field-${f.field.id}` }, f.field.name),
-    h('p', { class: 'lede' }, `Time zone ${display.timeZone}`, f.field.notes !== '' ? ` · ${f.field.notes}` : ''));
+    h('p', { class: 'lede' }, `Time zone ${display.timeZone}`, f.field.notes !== '' ? ` · ${f.field.notes}` : ''),
+    reportActions(app, { field: f.field.name }));
   if (f.wells.length === 0) {
     section.append(notice('info',
       'This field has no wells yet. Add them from the command line (tauwell add-well), or import a plant export on the ',

@@ -4,6 +4,7 @@
  * (exportable as CSV), unknown and created wells, the assumptions the reader applied, and — when
  * the same bytes were imported before — that fact with a way to import them again anyway.
  */
+import { downloadText } from '../app/download.js';
 import type { AppContext } from '../app/context.js';
 import type { Display } from '../app/display.js';
 import { h, notice } from '../app/dom.js';
@@ -103,12 +104,3 @@ function rejectedView(app: AppContext, importId: number, data: ReportData): HTML
  * Hands text to the browser as a download: in a browser tab it lands in the downloads, in the
  * desktop window the shell asks where to save it.
  */
-export function downloadText(text: string, fileName: string, mediaType: string): void {
-  const url = URL.createObjectURL(new Blob([text], { type: `${mediaType};charset=utf-8` }));
-  const link = h('a', { href: url, download: fileName, class: 'imp-vh' }, fileName);
-  document.body.append(link);
-  link.click();
-  link.remove();
-  // Revoked later, not at once: the download reads the blob after click() returns.
-  window.setTimeout(() => URL.revokeObjectURL(url), 60_000);
-}

@@ -37,6 +37,7 @@ import {
   type AddReservoirVersionRequest, type CreateReservoirRequest, type ListReservoirVersionsResponse, type ReservoirInfo,
   type ReservoirRef, type ReservoirTheoryRequest, type ReservoirTheoryResponse, type ReservoirVersionJson,
 } from './reservoirs.js';
+import { MAKE_REPORT_REQUEST, type MakeReportRequest, type MakeReportResponse } from './reports.js';
 import { object, type Schema } from './schema.js';
 import {
   CREATE_FIELD_REQUEST, CREATE_WELL_REQUEST, LIST_WELLS_REQUEST, UPDATE_WELL_REQUEST, WELL_REF,
@@ -94,6 +95,8 @@ export interface TauwellServices {
   saveImportProfile(request: SaveImportProfileRequest): ImportProfileJson;
   loadImportProfile(request: ImportProfileRef): ImportProfileJson;
   listImportProfiles(request?: Record<string, never>): ListImportProfilesResponse;
+  // the offline decline report, for the front end to save
+  makeReport(request: MakeReportRequest): Promise<MakeReportResponse>;
 }
 
 export type ServiceName = keyof TauwellServices;
@@ -139,4 +142,5 @@ export const REQUEST_SCHEMAS: { readonly [K in ServiceName]: Schema<unknown> } =
   saveImportProfile: SAVE_IMPORT_PROFILE_REQUEST,
   loadImportProfile: IMPORT_PROFILE_REF,
   listImportProfiles: LIST_IMPORT_PROFILES_REQUEST,
+  makeReport: MAKE_REPORT_REQUEST,
 };
