@@ -15,6 +15,7 @@ import { chromium, type Browser, type Page } from 'playwright-core';
 import { openDatabase, type FieldDb } from '../../src/main/db/database.js';
 import { startLoopbackServer, type LoopbackServer } from '../../src/main/server/index.js';
 import { closeServices, createServices } from '../../src/main/services/index.js';
+import type { TauwellServices } from '../../src/shared/contract/index.js';
 
 export const CHROMIUM = process.env.TAUWELL_CHROMIUM ?? '/usr/bin/chromium';
 export const CHROMIUM_ARGS = [
@@ -30,6 +31,8 @@ export interface RunningApp {
   page: Page;
   browser: Browser;
   fdb: FieldDb;
+  /** The back end's services, to check what the screens stored. */
+  services: TauwellServices;
   dbFile: string;
   /** Console errors and uncaught page errors seen so far. */
   errors: string[];
@@ -76,6 +79,7 @@ export async function startApp(options: { viewport?: { width: number; height: nu
       page,
       browser,
       fdb,
+      services,
       dbFile,
       errors,
       requests,

@@ -1,5 +1,5 @@
 /**
- * `npm start`: builds the app (electron-vite build) and opens the desktop window, whose field log
+ * `npm start`: builds the app (electron-vite build, and the report page) and opens the desktop window, whose field log
  * is built from the INVENTED demo field the first time. Where the Electron binary is not installed
  * it says so in one line and serves the demo field log to a browser instead (`tauwell serve`).
  *
@@ -51,6 +51,8 @@ function runUntilExit(command, args) {
 
 function main() {
   runNode([join(PROJECT_ROOT, 'node_modules', 'electron-vite', 'bin', 'electron-vite.js'), 'build'], 'electron-vite build');
+  // The offline report page (its own single-file bundle, vite.report.config.ts), for the report action.
+  runNode([join(PROJECT_ROOT, 'node_modules', 'vite', 'bin', 'vite.js'), 'build', '--config', 'vite.report.config.ts', '--logLevel', 'warn'], 'building the report page');
   const electron = detectElectron();
   if (electron.installed) {
     runUntilExit(electron.binary, [PROJECT_ROOT]);
