@@ -11,11 +11,13 @@ import { peakRssMiB } from './lib.mjs';
 const SECTIONS = {
   fit: './fit.mjs',
   import: './import.mjs',
+  chart: './decline-chart.mjs',
 };
 
 const USAGE = `usage: node bench/run.mjs [section ...] [--quick]
   sections: ${Object.keys(SECTIONS).join(', ')} (default: all)
-  --quick   skip the slowest baselines (the 1,000,000-point ml-levenberg-marquardt fit)`;
+  --quick   skip the slowest baselines (the 1,000,000-point ml-levenberg-marquardt fit) and make the
+            chart section's large well 200,000 readings`;
 
 function parseArgs(argv) {
   const names = [];

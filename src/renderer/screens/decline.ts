@@ -9,6 +9,7 @@
  * its own (the limit, the planned flow). Every call after a change of choice is generation-counted,
  * so a late answer to an old choice is dropped.
  */
+import { reportActions } from '../app/report-action.js';
 import '../styles/decline.css';
 import type { Wire } from '../../shared/contract/channels.js';
 import type { FitStatusResponse, FitWellRequest, FitWellResponse, ForecastLimit, ForecastWellResponse, ModelChoice } from '../../shared/contract/fits.js';
@@ -211,6 +212,7 @@ class DeclineView {
 
     replace(this.section,
       h('div', { class: 'decline-head' }, h('div', {}, h('h1', {}, `Decline · ${this.wellName}`), h('p', { class: 'lede' }, lede)), links),
+      reportActions(this.app, { well: this.wellName, field: this.fieldName }),
       tref === null ? notice('warn', `${this.wellName} has no reference temperature Tref, so θ = T − Tref and the fit cannot be computed. Set it with the well's details.`) : null,
       h('div', { class: 'panel decline-controls', role: 'group', 'aria-label': 'What the chart shows and fits' },
         h('div', { class: 'form-row' }, this.quantity.wrap, this.basis.wrap, this.model.wrap, this.from.wrap, this.to.wrap),
