@@ -13,7 +13,8 @@ import type { AppContext, Screen } from '../app/context.js';
 import type { Display } from '../app/display.js';
 import { field, h, notice, replace, sortableTable, type Column } from '../app/dom.js';
 import { routeTo } from '../app/router.js';
-import { Chart, COLOURS, setChartTimeZone } from '../charts/setup.js';
+import { outputChartConfig } from '../charts/output-chart.js';
+import { Chart, setChartTimeZone } from '../charts/setup.js';
 import { fieldFacts, limitText, outputPoints, wellRow, type WellRow } from './field-model.js';
 import { checkTimeZone, knownTimeZones } from './settings-model.js';
 
@@ -147,45 +148,7 @@ function outputChart(f: Wire<FieldOverview>, display: Display): HTMLElement {
   });
   const box = h('div', { class: 'chart-box' }, canvas);
   setChartTimeZone(display.timeZone);
-  const chart = new Chart(canvas, {
-    type: 'line',
-    data: {
-      datasets: [{
-        label: `Thermal power (${unit})`,
-        data: points,
-        borderColor: COLOURS.fit,
-        backgroundColor: COLOURS.band,
-        fill: 'origin',
-        borderWidth: 1.5,
-        pointRadius: 0,
-        pointHitRadius: 6,
-      }],
-    },
-    options: {
-      parsing: false,
-      normalized: true,
-      responsive: true,
-      maintainAspectRatio: false,
-      interaction: { mode: 'nearest', axis: 'x', intersect: false },
-      scales: {
-        x: {
-          type: 'time', time: { tooltipFormat: 'week' }, ticks: { maxRotation: 0, autoSkipPadding: 16 },
-          title: { display: true, text: `Week (${display.timeZone})` },
-        },
-        y: { beginAtZero: true, title: { display: true, text: `Thermal power (${unit})` } },
-      },
-      plugins: {
-        legend: { display: false },
-        decimation: { enabled: true, algorithm: 'min-max' },
-        tooltip: { callbacks: { label: (item) => `${item.parsed.y?.toFixed(2) ?? '—'} ${unit}` } },
-        zoom: {
-          zoom: { wheel: { enabled: true }, pinch: { enabled: true }, mode: 'x' },
-          pan: { enabled: true, mode: 'x' },
-          limits: { x: { min: 'original', max: 'original' } },
-        },
-      },
-    },
-  });
+  const chart = new Chart(canvas, outputChartConfig({ measured: points, display, interactive: true }));
   charts.push(chart);
   wrap.append(
     h('div', { class: 'actions' },

@@ -75,18 +75,8 @@ export interface ReportMeta {
   cautions: string[];
 }
 
-export interface ImportRow {
-  id: number;
-  file: string;
-  started: string;
-  status: string;
-  rowsRead: number;
-  imported: number;
-  duplicates: number;
-  conflicts: number;
-  rejected: number;
-  flagged: number;
-}
+/** One import as the report lists it: the contract's record, without its mapping and options. */
+export type ImportRow = Pick<ImportRecordJson, 'id' | 'file' | 'started' | 'status' | 'rowsRead' | 'imported' | 'duplicates' | 'conflicts' | 'rejected' | 'flagged'>;
 
 export interface ImportSummary {
   /** The field the imports went into (an import may hold readings of several wells). */
