@@ -135,6 +135,20 @@ describe.skipIf(process.env.TAUWELL_E2E === 'off')('the desktop UI end to end (h
     await app.shot('09-settings');
   });
 
+  it('saves the well\'s offline report from the decline screen, as HTML and as PDF', async () => {
+    const { page } = app;
+    await app.go(route('decline', FIELD, WELL));
+    for (const [label, ext, magic] of [['Save report (HTML)', '.html', '<!doctype html'], ['Save report (PDF)', '.pdf', '%PDF-']] as const) {
+      const [download] = await Promise.all([
+        page.waitForEvent('download', { timeout: 60_000 }),
+        page.getByRole('button', { name: label }).click(),
+      ]);
+      expect(download.suggestedFilename()).toMatch(new RegExp(`^tauwell-KR-3-\\d{4}-\\d{2}-\\d{2}\\${ext}$`));
+      const file = await download.path();
+      expect(readFileSync(file).subarray(0, 20).toString('latin1').toLowerCase()).toContain(magic.toLowerCase());
+    }
+  });
+
   it('logged no error in the page along the way', () => {
     expect(app.errors).toEqual([]);
   });
