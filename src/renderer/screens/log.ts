@@ -253,7 +253,7 @@ async function fitWords(app: AppContext, well: WellForForm): Promise<{ tell: str
     const fit = await app.client.fitStatus({ well: well.name, field: well.field });
     if (fit.latest === null) return { tell: '', nodes: [` ${well.name} has no stored fit yet: `, link('fit it on the Decline screen'), '.'] };
     if (fit.stale === true) {
-      return { tell: ' Its stored fit is now stale; refit on the Decline screen.', nodes: [` The stored fit of ${well.name} is now stale: ${fit.message} `, link('Refit on the Decline screen'), '.'] };
+      return { tell: ' Its stored fit is now stale; refit on the Decline screen.', nodes: [` The stored fit of ${well.name} is now ${fit.message.replace(/; fit again$/, '')}: `, link('Refit on the Decline screen'), '.'] };
     }
     return { tell: '', nodes: [` Stored fit of ${well.name}: ${fit.message} `, link('Decline screen'), '.'] };
   } catch {
