@@ -5,7 +5,11 @@ import { beforeAll, afterAll, describe, expect, it } from 'vitest';
 import type { FieldDb } from '../src/main/db/database.js';
 import type { Well } from '../src/main/db/wells.js';
 import { dataQuality } from '../src/main/services/data-quality.js';
+import { createContext } from '../src/main/services/context.js';
+import { fitServices } from '../src/main/services/fits.js';
+import { forecastServices } from '../src/main/services/forecasts.js';
 import { createServices, type Services } from '../src/main/services/index.js';
+import { overviewServices } from '../src/main/services/overview.js';
 import type { ForecastLimit } from '../src/shared/contract/fits.js';
 import type { WellOverview } from '../src/shared/contract/overview.js';
 import type { SeriesReading } from '../src/shared/series/well-series.js';
@@ -255,5 +259,27 @@ describe('the data-quality rule (src/main/services/data-quality.ts)', () => {
     const injection = dataQuality(well('injection'), weekly(30, 7, 3, () => ({ productionTemperatureC: null })), NOW_MS, NOW_MS);
     expect(injection).toMatchObject({ mark: 'good', included: 0, excluded: 30 });
     expect(injection.notes.join(' ')).toMatch(/injection well, not fitted/);
+  });
+});
+
+describe('the overview without forecasts (what a report takes from it)', () => {
+  it('has the same quality, θ, limit and field output as the full overview, and makes no fit', () => {
+    const db = freshDb();
+    try {
+      createServices(db).buildDemo();
+      const countDbFits = (): number => (db.db.prepare('SELECT count(*) AS n FROM fits').get() as { n: number }).n;
+      const fitsBefore = countDbFits();
+      const ctx = createContext(db, { now: () => NOW_MS });
+      const fits = fitServices(ctx);
+      const overview = overviewServices(ctx, fits, forecastServices(ctx, fits));
+      const full = overview.fieldOverview({}).fields[0];
+      const lean = overview.fieldOverview({}, { forecasts: false }).fields[0];
+      expect(lean.output).toEqual(full.output);
+      expect(lean.wells.map((w) => [w.well.name, w.quality, w.thetaK, w.limit.kind])).toEqual(full.wells.map((w) => [w.well.name, w.quality, w.thetaK, w.limit.kind]));
+      for (const w of lean.wells) expect([w.fit, w.yearsToLimit, w.endOfLife]).toEqual([null, null, null]);
+      expect(countDbFits()).toBe(fitsBefore);
+    } finally {
+      db.close();
+    }
   });
 });

@@ -49,7 +49,7 @@ export function overviewServices(ctx: ServiceContext, fits: Fits, forecasts: For
   const settingsRepo = new SettingsRepository(ctx.fdb);
   const wells = wellServices(ctx);
 
-  function wellRow(summary: WellSummary, well: Well, history: Reading[], settings: ReturnType<typeof readSettings>, fieldLatestMs: number, nowMs: number): WellOverview {
+  function wellRow(summary: WellSummary, well: Well, history: Reading[], settings: ReturnType<typeof readSettings>, fieldLatestMs: number, nowMs: number, withForecast: boolean): WellOverview {
     const { limit } = economicLimitOf(settings, well.id);
     const row: WellOverview = {
       well: summary, thetaK: latestTheta(well, history), fit: null, theoryTauS: null,
@@ -60,6 +60,7 @@ export function overviewServices(ctx: ServiceContext, fits: Fits, forecasts: For
       row.problem = `${well.name} is an injection well: decline fits and forecasts are made of production wells`;
       return row;
     }
+    if (!withForecast) return row;
     const latest = fits.latestStored(well.id);
     const choice = {
       well: well.name, field: summary.field, points: false,
@@ -115,8 +116,14 @@ export function overviewServices(ctx: ServiceContext, fits: Fits, forecasts: For
   }
 
   return {
-    fieldOverview(request: FieldOverviewRequest = {}): FieldOverviewResponse {
+    /**
+     * `forecasts: false` (not reachable through the contract) leaves out each well's fit and
+     * forecast: the rows then carry the latest reading, θ, the limit and the data quality, and the
+     * field its output — what a report needs besides the forecasts it makes itself.
+     */
+    fieldOverview(request: FieldOverviewRequest = {}, options: { forecasts?: boolean } = {}): FieldOverviewResponse {
       const req = validate(FIELD_OVERVIEW_REQUEST, request);
+      const withForecast = options.forecasts !== false;
       const settings = readSettings(settingsRepo);
       const nowMs = ctx.now();
       const listed = wells.listWells(req.field === undefined ? {} : { field: req.field });
@@ -129,7 +136,7 @@ export function overviewServices(ctx: ServiceContext, fits: Fits, forecasts: For
           const fieldLatestMs = Math.max(-Infinity, ...logs.map((l) => l.history.at(-1)?.timeMs ?? -Infinity));
           return {
             field,
-            wells: logs.map((l) => wellRow(l.summary, l.well, l.history, settings, fieldLatestMs, nowMs)),
+            wells: logs.map((l) => wellRow(l.summary, l.well, l.history, settings, fieldLatestMs, nowMs, withForecast)),
             output: fieldOutput(logs),
           };
         }),

@@ -23,7 +23,7 @@ import { toWire, type Wire } from '../../shared/contract/channels.js';
 import type { ForecastLimit, ForecastWellResponse, ModelChoice } from '../../shared/contract/fits.js';
 import type { TauwellServices } from '../../shared/contract/index.js';
 import type { ImportRecordJson } from '../../shared/contract/imports.js';
-import type { FieldOverview, WellSeriesResponse } from '../../shared/contract/overview.js';
+import type { FieldOverview, FieldOverviewResponse, WellSeriesResponse } from '../../shared/contract/overview.js';
 import type { ListReservoirVersionsResponse } from '../../shared/contract/reservoirs.js';
 import { isoOf } from '../../shared/contract/schema.js';
 import type { DisplayUnits, SettingsJson } from '../../shared/contract/settings.js';
@@ -34,6 +34,10 @@ import { buildReportModel, type ReportModel, type ReportScope, type WellSources 
 import type { FieldDb } from '../db/database.js';
 import { assembleReportHtml, type Paper } from '../report/assemble.js';
 import { printPdf } from '../report/pdf.js';
+import { createContext } from './context.js';
+import { fitServices } from './fits.js';
+import { forecastServices } from './forecasts.js';
+import { overviewServices } from './overview.js';
 import { economicLimitOf } from './settings.js';
 
 export type { Paper } from '../report/assemble.js';
@@ -60,6 +64,12 @@ export interface ReportServiceOptions {
 }
 
 export function createReportService(services: TauwellServices, fdb: FieldDb, options: ReportServiceOptions = {}) {
+  // The data quality and thermal output of the field overview, without its forecasts: the report
+  // forecasts each well itself (forecastWell below), so the overview's would be made a second time.
+  const ctx = createContext(fdb);
+  const fits = fitServices(ctx);
+  const overview = overviewServices(ctx, fits, forecastServices(ctx, fits));
+  const overviewOf = (field: string): FieldOverviewResponse => overview.fieldOverview({ field }, { forecasts: false });
   function wellSources(well: WellInfo, settings: SettingsJson, limitOverride: ForecastLimit | undefined): WellSources {
     const ref = { well: well.name, field: well.field };
     const latest = services.fitStatus(ref).latest;
@@ -115,7 +125,7 @@ export function createReportService(services: TauwellServices, fdb: FieldDb, opt
         wells = summaries;
         scope = { kind: 'field', field: info.name };
       }
-      const overview = refusedAsNull(() => (toWire(services.fieldOverview({ field: field.name })) as Wire<{ fields: FieldOverview[] }>).fields[0] ?? null);
+      const overview = refusedAsNull(() => (toWire(overviewOf(field.name)) as Wire<{ fields: FieldOverview[] }>).fields[0] ?? null);
       const sources = wells.map((w) => wellSources(w, settings, request.limit));
       return buildReportModel({
         scope,
