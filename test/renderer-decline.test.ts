@@ -261,6 +261,8 @@ describe('candidate table and facts', () => {
   it('writes a mass-basis τ as the characteristic mass and converts it to years at the mean flow', () => {
     const est = { value: 4e10, stderr: 1e9, ci95: [3.8e10, 4.2e10] as number[], unit: 'kg' };
     expect(parameterCell('tau', 'mass', est as never, SI)).toBe('Mc 40.0 Mt (38.0–42.0)');
+    // A fit that did not converge: the last iterate's value, no interval around it.
+    expect(parameterCell('tau', 'mass', est as never, SI, false)).toBe('Mc 40.0 Mt');
     const fit = { basis: 'mass', meanMassFlowKgPerS: 40, fit: { ...wireFit('exponential', 0, 0), basis: 'mass', parameters: { tau: est } } } as unknown as Wire<FitWellResponse>;
     const tau = fittedTauS(fit);
     // Worked example: τ = Mc/ṁ = 4e10 kg / 40 kg/s = 1e9 s = 31.69 Julian years.

@@ -51,9 +51,13 @@ function sig3(v: number): string {
 }
 
 /** The cell of one parameter: '52.3 K (51.9–52.7)'. */
-export function parameterCell(name: ParameterName, basis: Basis, est: Wire<FitResult>['parameters'][ParameterName] | undefined, display: Display): string {
+/**
+ * A parameter with its 95 % interval. `withInterval: false` for a fit that did not converge: its
+ * values are the last iterate, not an optimum, so an interval around them would mean nothing.
+ */
+export function parameterCell(name: ParameterName, basis: Basis, est: Wire<FitResult>['parameters'][ParameterName] | undefined, display: Display, withInterval = true): string {
   if (est === undefined || !finite(est.value)) return '—';
-  const [lo, hi] = est.ci95 ?? [];
+  const [lo, hi] = withInterval ? est.ci95 ?? [] : [];
   const range = (f: (v: number) => string): string => (finite(lo) && finite(hi) ? ` (${f(lo)}–${f(hi)})` : '');
   switch (name) {
     case 'theta0':
@@ -78,7 +82,7 @@ export function candidateRows(fit: WireFit, display: Display): CandidateRow[] {
   const candidates: Wire<FitResult>[] = 'candidates' in fit && Array.isArray(fit.candidates) && fit.candidates.length > 0 ? fit.candidates : [fit];
   const best = Math.min(...candidates.filter((c) => c.converged && finite(c.aicc)).map((c) => c.aicc));
   return candidates.map((c) => {
-    const cell = (name: ParameterName): string => (c.parameterNames.includes(name) ? parameterCell(name, c.basis, c.parameters[name], display) : '—');
+    const cell = (name: ParameterName): string => (c.parameterNames.includes(name) ? parameterCell(name, c.basis, c.parameters[name], display, c.converged) : '—');
     return {
       model: c.model,
       label: MODEL_LABELS[c.model],
