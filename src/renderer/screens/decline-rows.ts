@@ -52,8 +52,9 @@ function sig3(v: number): string {
 
 /** The cell of one parameter: '52.3 K (51.9–52.7)'. */
 /**
- * A parameter with its 95 % interval. `withInterval: false` for a fit that did not converge: its
- * values are the last iterate, not an optimum, so an interval around them would mean nothing.
+ * A parameter with its 95 % interval. `withInterval: false` for a fit that stopped without an
+ * optimum (max-iterations, singular): its values are the last iterate, so an interval around them
+ * would mean nothing. A fit at a bound did reach the constrained optimum and keeps its intervals.
  */
 export function parameterCell(name: ParameterName, basis: Basis, est: Wire<FitResult>['parameters'][ParameterName] | undefined, display: Display, withInterval = true): string {
   if (est === undefined || !finite(est.value)) return '—';
@@ -82,7 +83,7 @@ export function candidateRows(fit: WireFit, display: Display): CandidateRow[] {
   const candidates: Wire<FitResult>[] = 'candidates' in fit && Array.isArray(fit.candidates) && fit.candidates.length > 0 ? fit.candidates : [fit];
   const best = Math.min(...candidates.filter((c) => c.converged && finite(c.aicc)).map((c) => c.aicc));
   return candidates.map((c) => {
-    const cell = (name: ParameterName): string => (c.parameterNames.includes(name) ? parameterCell(name, c.basis, c.parameters[name], display, c.converged) : '—');
+    const cell = (name: ParameterName): string => (c.parameterNames.includes(name) ? parameterCell(name, c.basis, c.parameters[name], display, c.status === 'converged' || c.status === 'at-bound') : '—');
     return {
       model: c.model,
       label: MODEL_LABELS[c.model],
