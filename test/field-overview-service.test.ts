@@ -18,7 +18,7 @@ import { freshDb } from './db-helpers.js';
 import { START_MS, fixture, iso } from './services-helpers.js';
 
 const DAY_MS = 86_400_000;
-const YEAR_MS = 365.25 * DAY_MS; // Julian year (DOMAIN.md §9)
+const YEAR_MS = 365.25 * DAY_MS; // Julian year, the trade's year for rates (common practice; IAU definition)
 /** 2026-01-01T00:00:00Z: the overview's "now", a fortnight after the demo's last weekly reading. */
 const NOW_MS = Date.UTC(2026, 0, 1);
 

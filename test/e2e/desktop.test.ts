@@ -121,7 +121,8 @@ describe.skipIf(process.env.TAUWELL_E2E === 'off')('the desktop UI end to end (h
     await expect.poll(async () => recharge.textContent(), { timeout: 30_000 }).toMatch(/Version \d+ saved/);
     await expect.poll(async () => tau.textContent(), { timeout: 10_000 }).not.toBe(before);
     const wellAfter = services.forecastWell({ well: WELL, model: 'auto', points: false, limit: { kind: 'production-temperature', temperatureC: 115 } }).recharge;
-    // τtheory ∝ A (slab model, DOMAIN-style lumped heat balance): three quarters of the area, three quarters of τ.
+    // Worked from the lumped slab model: τ = C/(ṁ·cw) with C = ρr·cr·A·(z2 − z1), so τ ∝ A at fixed flow —
+    // three quarters of the area, three quarters of τtheory.
     expect(wellAfter!.tauTheoryS / wellBefore!.tauTheoryS).toBeCloseTo(Math.round(shown * 0.75) / shown, 6);
     expect(wellAfter!.ratio.value).not.toBeCloseTo(wellBefore!.ratio.value, 6);
     await app.shot('07-reservoir');
