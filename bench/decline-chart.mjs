@@ -92,7 +92,7 @@ export async function buildFieldLog(file, wells) {
 /** The services with the wall time of each call recorded (the back end's share, without the transport). */
 function timedServices(services, log) {
   const out = { ...services };
-  for (const name of ['getWell', 'wellSeries', 'fitStatus', 'fitWell', 'forecastWell']) {
+  for (const name of ['getWell', 'chartSeries', 'fitStatus', 'fitWell', 'forecastWell']) {
     const f = services[name];
     out[name] = (request) => {
       const t0 = performance.now();
@@ -136,7 +136,7 @@ async function openWell(page, well) {
   const before = api.filter((a) => a.responseEnd <= drawn.at);
   const serverMs = before.reduce((s, a) => s + (a.responseStart - a.requestStart), 0);
   const transferMs = before.reduce((s, a) => s + (a.responseEnd - a.responseStart), 0);
-  const series = before.find((a) => a.method === 'wellSeries');
+  const series = before.find((a) => a.method === 'chartSeries');
   return {
     drawnMs: drawn.at - t0, frameMs: drawn.seenAt - t0, fitShownMs: fit.at - t0,
     serverMs, transferMs, browserMs: drawn.at - t0 - serverMs - transferMs,
@@ -144,8 +144,11 @@ async function openWell(page, well) {
   };
 }
 
+/** The chart's box on screen, scrolled into view first (the controls and facts above it push it below the fold). */
 async function canvasBox(page) {
-  return page.locator('.decline-main canvas').boundingBox();
+  const canvas = page.locator('.decline-main canvas');
+  await canvas.scrollIntoViewIfNeeded();
+  return canvas.boundingBox();
 }
 
 async function zoomSteps(page) {
@@ -262,7 +265,7 @@ export async function run({ quick = false } = {}) {
     for (const well of [small, large]) {
       const m = await measureWell(page, well, opens);
       const calls = serviceLog.splice(0).filter((c) => c.well === well);
-      m.serviceMs = Object.fromEntries(['wellSeries', 'fitStatus', 'forecastWell', 'fitWell'].map((k) => [k, median(calls.filter((c) => c.method === k).map((c) => c.ms)) ?? null]));
+      m.serviceMs = Object.fromEntries(['chartSeries', 'fitStatus', 'forecastWell', 'fitWell'].map((k) => [k, median(calls.filter((c) => c.method === k).map((c) => c.ms)) ?? null]));
       measured[well] = { ...m, summary: summarise(m) };
     }
     if (errors.length > 0) throw new Error(`bench: the page reported errors: ${errors.join('; ')}`);
@@ -283,7 +286,7 @@ export async function run({ quick = false } = {}) {
         row('open route → chart drawn', s.openMs, l.openMs, `≤ ${OPEN_TARGET_MS}`, ok(checks.open)),
         row('… → first frame after it', s.openFrameMs, l.openFrameMs),
         row('… of which back end (time to first byte)', s.openServerMs, l.openServerMs),
-        row('… of which wellSeries service alone', svc(small, 'wellSeries'), svc(large, 'wellSeries')),
+        row('… of which chartSeries service alone', svc(small, 'chartSeries'), svc(large, 'chartSeries')),
         row('… of which transfer', s.openTransferMs, l.openTransferMs),
         row('… of which browser (parse, datasets, draw)', s.openBrowserMs, l.openBrowserMs),
         row('open route → fit and forecast shown', s.fitShownMs, l.fitShownMs),
@@ -297,7 +300,7 @@ export async function run({ quick = false } = {}) {
         row('window change → frame, max', s.windowFrameMaxMs, l.windowFrameMaxMs),
         row('window change → refit shown, median', s.refitShownMs, l.refitShownMs),
       ]),
-      `\nResponses for ${largeLabel}: wellSeries ${mb(apiBytes(measured[large], 'wellSeries'))} MB, forecastWell ${mb(apiBytes(measured[large], 'forecastWell'))} MB. ` +
+      `\nResponses for ${largeLabel}: chartSeries ${mb(apiBytes(measured[large], 'chartSeries'))} MB, forecastWell ${mb(apiBytes(measured[large], 'forecastWell'))} MB. ` +
         `Chromium ${browser.version()}, viewport 1400×1000; ${cpus().length} CPUs, load average ${loadBefore[0].toFixed(1)} at the start and ${loadavg()[0].toFixed(1)} at the end ` +
         '(the machine is shared: other work slows both columns alike, so the ratios say more than the times).',
     ].join('\n');

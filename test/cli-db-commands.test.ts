@@ -53,10 +53,10 @@ describe('tauwell demo and init', () => {
 
   it('init makes an empty log, optionally with a field; add-well adds a well', async () => {
     expect(await ok(['init', '--db', 'new.sqlite', '--field', 'North', '--time-zone', 'Europe/Berlin'])).toBe(
-      'created the field log new.sqlite (schema 3)\nadded the field "North" (time zone Europe/Berlin)\n',
+      'created the field log new.sqlite (schema 4)\nadded the field "North" (time zone Europe/Berlin)\n',
     );
     expect(existsSync(join(dir, 'new.sqlite'))).toBe(true);
-    expect(await ok(['init', '--db', 'new.sqlite'])).toBe('new.sqlite: a field log with schema 3\n');
+    expect(await ok(['init', '--db', 'new.sqlite'])).toBe('new.sqlite: a field log with schema 4\n');
     expect(await ok(['add-well', '--db', 'new.sqlite', '--field', 'North', '--name', 'N-1', '--kind', 'production', '--reference-temperature', '65', '--production-start', '2024-03-01 08:00']))
       .toBe('added the production well N-1 to "North"\n');
     const wells = JSON.parse(await ok(['wells', '--db', 'new.sqlite', '--json']));

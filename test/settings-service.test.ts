@@ -165,7 +165,7 @@ describe('aboutFieldLog', () => {
         wells: 1,
         liveReadings: 2, // three logged, one deleted
       });
-      expect(about.schemaVersion).toBe(3);
+      expect(about.schemaVersion).toBe(4);
     } finally {
       fdb.close();
     }

@@ -1,8 +1,10 @@
 // wellSeries: a well's readings in columns, with the fit's own exclusion rule, time zero and produced
-// mass; and fitWell / forecastWell with points: false.
+// mass; chartSeries, the same packed for a chart; and fitWell / forecastWell with points: false.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ReadingRepository } from '../src/main/db/readings.js';
-import { EXCLUSION_CODES } from '../src/shared/contract/overview.js';
+import { decodeChartSeries } from '../src/renderer/charts/packed-series.js';
+import { toWire, type Wire } from '../src/shared/contract/channels.js';
+import { EXCLUSION_CODES, type ChartSeriesResponse, type WellSeriesRequest } from '../src/shared/contract/overview.js';
 import { START_MS, fixture, inputError, iso, type Fixture } from './services-helpers.js';
 
 const H_MS = 3_600_000;
@@ -115,5 +117,57 @@ describe('points: false', () => {
     expect(b.fit.points).toEqual([]);
     expect(b.forecast).toEqual(a.forecast);
     expect(b.forecast.nowTimeS).toBe(6 * H_S); // +6 h, the last included reading
+  });
+});
+
+// chartSeries: the same columns packed as little-endian binary in base64 (contract/overview.ts),
+// decoded by the renderer's own decoder after the transports' JSON round trip.
+describe('chartSeries', () => {
+  const wire = (r: unknown) => JSON.parse(JSON.stringify(toWire(r))) as Wire<ChartSeriesResponse>;
+  const same = (request: WellSeriesRequest) => {
+    const plain = f.s.wellSeries(request);
+    const packed = wire(f.s.chartSeries(request));
+    const d = decodeChartSeries(packed);
+    expect(d.count).toBe(plain.count);
+    expect(d.basis).toBe(plain.basis);
+    expect(d.epochMs).toBe(plain.epochMs);
+    expect(d.timeOrigin).toBe(plain.timeOrigin);
+    expect(d.referenceTemperatureC).toBe(plain.referenceTemperatureC);
+    expect(Array.from(d.timeS)).toEqual(plain.timeS);
+    expect(d.x).toEqual(plain.x);
+    expect(d.productionTemperatureC).toEqual(plain.productionTemperatureC);
+    expect(Array.from(d.exclusion)).toEqual(plain.exclusion);
+    return packed;
+  };
+
+  it('decodes to wellSeries\'s columns on the time basis, value for value', () => {
+    const packed = same({ well: 'W-1' });
+    expect(packed.columns.x).toBeNull(); // derived from the instants on the time basis
+    // 8 bytes a reading for the doubles, 1 for the code (base64: 4 characters per 3 bytes).
+    expect(Buffer.from(packed.columns.timeMs, 'base64')).toHaveLength(8 * 7);
+    expect(Buffer.from(packed.columns.exclusion, 'base64')).toHaveLength(7);
+    expect(packed).not.toHaveProperty('readingId');
+  });
+
+  it('decodes to wellSeries\'s columns on the mass basis, with and without the deleted reading', () => {
+    expect(same({ well: 'W-1', basis: 'mass' }).columns.x).not.toBeNull();
+    same({ well: 'W-1', basis: 'mass', includeDeleted: true });
+    same({ well: 'W-1', includeDeleted: true });
+  });
+
+  it('keeps a reading whose flag does not exclude it (the fit\'s own rule), and an empty well', () => {
+    f.s.createWell({ field: 'Test field', name: 'W-flags', kind: 'production', referenceTemperatureC: 60, productionStart: iso(START_MS) });
+    f.s.logReading({ well: 'W-flags', time: iso(START_MS + H_MS), productionTemperature: 150, flow: 10, flowUnit: 'kg/s', flags: ['estimated'] });
+    f.s.logReading({ well: 'W-flags', time: iso(START_MS + 2 * H_MS), productionTemperature: 149, flow: 10, flowUnit: 'kg/s', flags: ['spike'] });
+    const d = decodeChartSeries(wire(f.s.chartSeries({ well: 'W-flags' })));
+    expect(Array.from(d.exclusion)).toEqual([C.included, C.flagged]);
+    same({ well: 'W-flags', basis: 'mass' });
+    f.s.createWell({ field: 'Test field', name: 'W-empty', kind: 'production' });
+    expect(same({ well: 'W-empty' }).count).toBe(0);
+  });
+
+  it('refuses what wellSeries refuses, naming the field', () => {
+    expect(inputError(() => f.s.chartSeries({ well: 'I-1', basis: 'mass' })).where.field).toBe('basis');
+    expect(inputError(() => f.s.chartSeries({ well: 'W-1', basis: 'volume' } as never)).where.field).toBe('basis');
   });
 });

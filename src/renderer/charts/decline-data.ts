@@ -18,12 +18,12 @@ export interface SeriesColumns {
   basis: Basis;
   /** Epoch of timeS, ms. */
   epochMs: number;
-  timeS: readonly number[];
+  timeS: ArrayLike<number>;
   /** Basis value: s after time zero, or kg produced since time zero; null before time zero. */
   x: readonly (number | null)[];
   productionTemperatureC: readonly (number | null)[];
   /** EXCLUSION_CODES (0 = included). */
-  exclusion: readonly number[];
+  exclusion: ArrayLike<number>;
 }
 
 export type YQuantity = 'temperature' | 'theta';

@@ -3,7 +3,7 @@
  * its forecast to the economic limit with the P10–P90 band, the residuals, every candidate model and
  * the stored fit's status.   #/decline/<field>/<well>   (#/decline alone: pick a well)
  *
- * Order of calls, so a long log shows quickly: the readings (wellSeries) are drawn first; then the
+ * Order of calls, so a long log shows quickly: the readings (chartSeries, packed) are drawn first; then the
  * stored fit's status (its model, basis and window become the initial choices); then the forecast
  * (forecastWell, which carries the fit); fitWell alone when the forecast is refused for a reason of
  * its own (the limit, the planned flow). Every call after a change of choice is generation-counted,
@@ -14,7 +14,6 @@ import '../styles/decline.css';
 import type { Wire } from '../../shared/contract/channels.js';
 import type { FitStatusResponse, FitWellRequest, FitWellResponse, ForecastLimit, ForecastWellResponse, ModelChoice } from '../../shared/contract/fits.js';
 import { MODEL_CHOICES } from '../../shared/contract/fits.js';
-import type { WellSeriesResponse } from '../../shared/contract/overview.js';
 import type { FieldInfo, WellInfo } from '../../shared/contract/wells.js';
 import { InputError } from '../../shared/errors.js';
 import type { Basis } from '../../shared/fit/types.js';
@@ -24,6 +23,7 @@ import type { Display } from '../app/display.js';
 import { field, h, notice, replace, select } from '../app/dom.js';
 import { routeTo } from '../app/router.js';
 import { DeclineCharts } from '../charts/decline-chart.js';
+import { decodeChartSeries, type DecodedSeries } from '../charts/packed-series.js';
 import { latestIncluded, massUnit, yMap, type SeriesColumns, type XAxis, type YMap, type YQuantity } from '../charts/decline-data.js';
 import type { WindowMs } from '../charts/decline-model.js';
 import { buildOverlay, EMPTY_OVERLAY, MODEL_WORDS, readingsView, type OverlayView } from '../charts/decline-overlay.js';
@@ -36,7 +36,7 @@ import { pickWell } from './decline-picker.js';
 /** Set once the fit and forecast of the current choices are on screen (for the benchmark). */
 export const MARK_FIT_SHOWN = 'tauwell:decline:fit-shown';
 
-type Series = Wire<WellSeriesResponse>;
+type Series = DecodedSeries;
 type FitResponse = Wire<FitWellResponse>;
 type ForecastResponse = Wire<ForecastWellResponse>;
 
@@ -140,7 +140,7 @@ class DeclineView {
       return;
     }
 
-    const series = await client.wellSeries({ well: this.wellName, field: this.fieldName, basis: 'time' });
+    const series = decodeChartSeries(await client.chartSeries({ well: this.wellName, field: this.fieldName, basis: 'time' }));
     if (this.disposed) return;
     this.series.set('time', series);
     this.layout(series);
@@ -361,7 +361,7 @@ class DeclineView {
     if (this.series.has(basis)) return true;
     this.fitMessage.replaceChildren(h('p', { class: 'muted' }, 'Loading the readings on that basis…'));
     try {
-      const s = await this.app.client.wellSeries({ well: this.wellName, field: this.fieldName, basis });
+      const s = decodeChartSeries(await this.app.client.chartSeries({ well: this.wellName, field: this.fieldName, basis }));
       if (this.disposed) return false;
       this.series.set(basis, s);
       this.fitMessage.replaceChildren();

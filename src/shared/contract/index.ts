@@ -20,8 +20,8 @@ import {
   type StagedFileJson, type StagedFileRef, type StartImportRequest, type UploadChunkRequest, type UploadChunkResponse,
 } from './imports.js';
 import {
-  FIELD_OVERVIEW_REQUEST, WELL_SERIES_REQUEST,
-  type FieldOverviewRequest, type FieldOverviewResponse, type WellSeriesRequest, type WellSeriesResponse,
+  CHART_SERIES_REQUEST, FIELD_OVERVIEW_REQUEST, WELL_SERIES_REQUEST,
+  type ChartSeriesResponse, type FieldOverviewRequest, type FieldOverviewResponse, type WellSeriesRequest, type WellSeriesResponse,
 } from './overview.js';
 import {
   ABOUT_FIELD_LOG_REQUEST, GET_SETTINGS_REQUEST, updateSettingsRequest, type AboutFieldLogJson, type SettingsJson, type UpdateSettingsRequest,
@@ -80,6 +80,7 @@ export interface TauwellServices {
   // what the screens show at a glance
   fieldOverview(request?: FieldOverviewRequest): FieldOverviewResponse;
   wellSeries(request: WellSeriesRequest): WellSeriesResponse;
+  chartSeries(request: WellSeriesRequest): ChartSeriesResponse;
   // CSV import: a staged copy of the user's file, its preview, the import as a job, its records
   beginUpload(request: BeginUploadRequest): BeginUploadResponse;
   uploadChunk(request: UploadChunkRequest): UploadChunkResponse;
@@ -128,6 +129,7 @@ export const REQUEST_SCHEMAS: { readonly [K in ServiceName]: Schema<unknown> } =
   aboutFieldLog: ABOUT_FIELD_LOG_REQUEST,
   fieldOverview: FIELD_OVERVIEW_REQUEST,
   wellSeries: WELL_SERIES_REQUEST,
+  chartSeries: CHART_SERIES_REQUEST,
   beginUpload: BEGIN_UPLOAD_REQUEST,
   uploadChunk: UPLOAD_CHUNK_REQUEST,
   finishUpload: STAGED_FILE_REF,

@@ -9,6 +9,12 @@
  *
  * wellSeries: every live reading of a well in columns, compact enough for a million readings (the
  * chart's data; the fit itself always runs in the back end on the stored values).
+ *
+ * chartSeries: the same readings in the form a chart reads, packed: each column one little-endian
+ * binary array in base64 (8 bytes a reading for the instant and the temperature, 1 for the
+ * exclusion code) instead of JSON numbers — about a third of the size and no number parsing, so a
+ * long log reaches the screen in a fraction of the time. Same values, bit for bit: the columns are
+ * IEEE 754 doubles as stored. Without the reading ids and flows, which a chart does not draw.
  */
 import type { Basis } from '../fit/types.js';
 import type { RechargeVerdict } from '../forecast/recharge.js';
@@ -129,6 +135,35 @@ export interface WellSeriesResponse {
   readingId: number[];
 }
 
+/**
+ * chartSeries's columns. Each is the base64 of a little-endian typed array of `count` entries
+ * (every platform Electron and Chromium run on is little-endian); NaN stands for a missing value.
+ */
+export interface PackedSeriesColumns {
+  /** Float64: the instant of each reading, ms since 1970-01-01 UTC, ascending. */
+  timeMs: string;
+  /** Float64: production temperature, °C; NaN where the reading has none. */
+  productionTemperatureC: string;
+  /** Uint8: EXCLUSION_CODES of each reading. */
+  exclusion: string;
+  /**
+   * Float64: kg produced since time zero, NaN before time zero (mass basis). Null on the time basis,
+   * where the basis value is (timeMs − timeOrigin) / 1000 s from time zero on, and none before it.
+   */
+  x: string | null;
+}
+
+export interface ChartSeriesResponse {
+  well: WellInfo;
+  basis: Basis;
+  timeOrigin: string | null;
+  referenceTemperatureC: number | null;
+  count: number;
+  /** The first reading's instant (as wellSeries's epochMs). */
+  epochMs: number;
+  columns: PackedSeriesColumns;
+}
+
 const NAME = string({ maxLength: 200 });
 
 export const FIELD_OVERVIEW_REQUEST = object({ field: optional(NAME) }) as Schema<FieldOverviewRequest>;
@@ -139,6 +174,9 @@ export const WELL_SERIES_REQUEST = object({
   basis: optional(oneOf(BASES)),
   includeDeleted: optional(boolean()),
 }) as Schema<WellSeriesRequest>;
+
+/** chartSeries takes what wellSeries takes. */
+export const CHART_SERIES_REQUEST = WELL_SERIES_REQUEST;
 
 /** `WellInfo` is re-exported for screens that only import this module. */
 export type { WellInfo };
