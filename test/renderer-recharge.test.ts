@@ -68,7 +68,7 @@ describe('the forecast request of a well', () => {
   it('uses the model, basis and window of the stored fit and the settings', () => {
     const status = { latest: { model: 'floor', basis: 'mass', window: { from: '2015-01-01T00:00:00Z', to: null } } } as unknown as Wire<FitStatusResponse>;
     expect(forecastRequestOf(well, status, settings)).toEqual({
-      well: 'KR-3', field: 'Kettle Ridge (invented)', model: 'floor', basis: 'mass', points: false, limit,
+      well: 'KR-3', field: 'Kettle Ridge (invented)', model: 'floor', basis: 'mass', points: false, residuals: false, limit,
       horizonYears: 30, backgroundHeatFlowWPerM2: 0.06, from: '2015-01-01T00:00:00Z',
     });
   });

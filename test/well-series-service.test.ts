@@ -171,3 +171,28 @@ describe('chartSeries', () => {
     expect(inputError(() => f.s.chartSeries({ well: 'W-1', basis: 'volume' } as never)).where.field).toBe('basis');
   });
 });
+
+describe('residuals: false', () => {
+  it('leaves every fit\'s x and residuals empty, the candidates\' too, and changes nothing else', () => {
+    // 40 weekly readings of θ = 10 K + 60 K·e^(−t/(5 yr)) above Tref 70 °C, with a small wobble.
+    f.s.createWell({ field: 'Test field', name: 'W-decline', kind: 'production', referenceTemperatureC: 70, productionStart: iso(START_MS) });
+    for (let k = 1; k <= 40; k++) {
+      const theta = 10 + 60 * Math.exp(-(k * 7) / (5 * 365.25)) + 0.05 * Math.sin(k);
+      f.s.logReading({ well: 'W-decline', time: iso(START_MS + k * 7 * 24 * H_MS), productionTemperature: 70 + theta, flow: 30, flowUnit: 'kg/s' });
+    }
+    const full = f.s.fitWell({ well: 'W-decline', model: 'auto' });
+    const lean = f.s.fitWell({ well: 'W-decline', model: 'auto', residuals: false });
+    expect(full.fit.residuals.length).toBeGreaterThan(0);
+    expect(lean.fit.x).toHaveLength(0);
+    expect(lean.fit.residuals).toHaveLength(0);
+    const candidates = (fit: typeof lean.fit) => ('candidates' in fit ? (fit as { candidates: (typeof lean.fit)[] }).candidates : []);
+    expect(candidates(lean.fit).length).toBe(candidates(full.fit).length);
+    for (const c of candidates(lean.fit)) expect([c.x.length, c.residuals.length]).toEqual([0, 0]);
+    const strip = (r: typeof full) => {
+      const { stored: _s, fit, ...rest } = r;
+      const { x: _x, residuals: _r, ...fitRest } = fit as typeof fit & { candidates?: unknown };
+      return { rest, fitRest: { ...fitRest, candidates: candidates(fit).map(({ x: _cx, residuals: _cr, ...c }) => c) } };
+    };
+    expect(strip(lean)).toEqual(strip(full));
+  });
+});

@@ -4,7 +4,10 @@
  * flow, status and flags, the values a refit would read — and over the well's Tref and time zero,
  * the basis and the window. When any of these changes, the fingerprint no longer matches and the
  * stored fit is stale. Injection temperature, pressure and notes do not enter a fit, so editing
- * them leaves it current.
+ * them leaves it current. The stored result keeps the fit's parameters, intervals, statistics and
+ * messages, not its per-point x and residuals (services/fits.ts withoutResiduals): those follow
+ * from the readings the fingerprint names, and a fit of a million readings would store a hundred
+ * megabytes each time.
  */
 import { toWire } from '../../shared/contract/channels.js';
 import { createHash } from 'node:crypto';
@@ -84,9 +87,19 @@ export function dataFingerprint(input: FingerprintInput): string {
   const hash = createHash('sha256');
   const text = (v: number | null): string => (v === null ? '-' : String(v));
   hash.update(`tauwell-fit-data 1|well ${input.wellId}|tref ${text(input.referenceTemperatureC)}|origin ${input.originMs}|basis ${input.basis}|window ${text(input.windowFromMs)} ${text(input.windowToMs)}\n`);
+  // The same bytes as one update a reading, handed over a few thousand readings at a time (an
+  // update per reading costs more than its hashing).
+  let chunk = '';
+  let inChunk = 0;
   for (const r of input.readings) {
-    hash.update(`${r.id}|${r.timeMs}|${text(r.productionTemperatureC)}|${text(r.normalisedMassFlowKgPerS)}|${r.status}|${r.flags.join(',')}\n`);
+    chunk += `${r.id}|${r.timeMs}|${text(r.productionTemperatureC)}|${text(r.normalisedMassFlowKgPerS)}|${r.status}|${r.flags.join(',')}\n`;
+    if (++inChunk === 4096) {
+      hash.update(chunk);
+      chunk = '';
+      inChunk = 0;
+    }
   }
+  hash.update(chunk);
   return hash.digest('hex');
 }
 

@@ -8,9 +8,8 @@ import { instantMs, isoOf, validate } from '../../shared/contract/schema.js';
 import type { WellRef } from '../../shared/contract/wells.js';
 import { InputError } from '../../shared/errors.js';
 import { fitAuto, fitDecline, type DeclineSeries } from '../../shared/fit/fit.js';
-import type { Basis } from '../../shared/fit/types.js';
-import { PRODUCED_MASS_RULE, buildWellSeries, type WellSeries } from '../../shared/series/well-series.js';
-import type { Reading } from '../db/readings.js';
+import type { AutoFitResult, Basis, FitResult } from '../../shared/fit/types.js';
+import { PRODUCED_MASS_RULE, buildWellSeries, type SeriesReading, type WellSeries } from '../../shared/series/well-series.js';
 import type { Well } from '../db/wells.js';
 import type { ServiceContext } from './context.js';
 import { FitStore, dataFingerprint, engineVersion, resultJsonText, type StoredFit } from './fit-store.js';
@@ -23,7 +22,7 @@ export interface PreparedSeries {
   originMs: number;
   originSource: 'production-start' | 'first-reading';
   /** Live readings from the start of the log to the window's end, in time order. */
-  history: Reading[];
+  history: readonly SeriesReading[];
   series: WellSeries;
   fingerprint: string;
   windowFromMs: number | null;
@@ -37,10 +36,23 @@ export function timeOriginOf(well: Well, firstLiveMs: number): { originMs: numbe
     : { originMs: well.productionStartMs, originSource: 'production-start' };
 }
 
-/** `liveReadings`: all the well's live readings in time order, when the caller has read them already (the overview). */
-export function prepareSeries(
-  ctx: ServiceContext, well: Well, basis: Basis, windowFromMs: number | null, windowToMs: number | null, liveReadings?: readonly Reading[],
-): PreparedSeries {
+/** The readings a fit of a well would use and the fingerprint of that data, before any series is built. */
+interface SelectedReadings {
+  referenceTemperatureC: number;
+  originMs: number;
+  originSource: 'production-start' | 'first-reading';
+  history: readonly SeriesReading[];
+  fingerprint: string;
+}
+
+/**
+ * The checks of a fit and the data it reads (prepareSeries without the series): fitStatus needs
+ * only the fingerprint, and on a million readings building the series would double its cost.
+ * `liveReadings` as for prepareSeries.
+ */
+function selectReadings(
+  ctx: ServiceContext, well: Well, basis: Basis, windowFromMs: number | null, windowToMs: number | null, liveReadings?: readonly SeriesReading[],
+): SelectedReadings {
   if (well.kind !== 'production') {
     throw new InputError(`${well.name} is an injection well; decline fits are made of production wells`, { field: 'well' });
   }
@@ -52,22 +64,33 @@ export function prepareSeries(
     throw new InputError(`the window ends (${isoOf(windowToMs)}) before it starts (${isoOf(windowFromMs)})`, { field: 'to' });
   }
   const history = liveReadings === undefined
-    ? ctx.readings.listLive(well.id, windowToMs === null ? {} : { toMs: windowToMs })
+    ? ctx.readings.listSeriesLive(well.id, windowToMs ?? undefined)
     : liveReadings.filter((r) => windowToMs === null || r.timeMs <= windowToMs);
   if (history.length === 0) throw new InputError(`${well.name} has no readings${windowToMs === null ? '' : ` up to ${isoOf(windowToMs)}`}`, { field: 'well' });
   const { originMs, originSource } = timeOriginOf(well, history[0].timeMs);
-  const series = buildWellSeries(history, {
-    basis, referenceTemperatureC: tref, originMs,
-    ...(windowFromMs !== null ? { fromMs: windowFromMs } : {}),
-    ...(windowToMs !== null ? { toMs: windowToMs } : {}),
-  });
-  if (series.readings.length === 0) {
+  // The window's readings (the series's own, buildWellSeries in src/shared/series/well-series.ts).
+  const from = windowFromMs ?? -Infinity;
+  const inWindow = windowFromMs === null && windowToMs === null ? history : history.filter((r) => r.timeMs >= from);
+  if (inWindow.length === 0) {
     throw new InputError(`${well.name} has no readings from ${windowFromMs === null ? 'the start' : isoOf(windowFromMs)} to ${windowToMs === null ? 'the end' : isoOf(windowToMs)}`, { field: 'from' });
   }
   // The mass basis reads the flow history from time zero on; the time basis only the window.
-  const used = basis === 'mass' ? history : series.readings;
+  const used = basis === 'mass' ? history : inWindow;
   const fingerprint = dataFingerprint({ wellId: well.id, referenceTemperatureC: tref, originMs, basis, windowFromMs, windowToMs, readings: used });
-  return { well, referenceTemperatureC: tref, originMs, originSource, history, series, fingerprint, windowFromMs, windowToMs };
+  return { referenceTemperatureC: tref, originMs, originSource, history, fingerprint };
+}
+
+/** `liveReadings`: all the well's live readings in time order, when the caller has read them already (the overview). */
+export function prepareSeries(
+  ctx: ServiceContext, well: Well, basis: Basis, windowFromMs: number | null, windowToMs: number | null, liveReadings?: readonly SeriesReading[],
+): PreparedSeries {
+  const { referenceTemperatureC, originMs, originSource, history, fingerprint } = selectReadings(ctx, well, basis, windowFromMs, windowToMs, liveReadings);
+  const series = buildWellSeries(history, {
+    basis, referenceTemperatureC, originMs,
+    ...(windowFromMs !== null ? { fromMs: windowFromMs } : {}),
+    ...(windowToMs !== null ? { toMs: windowToMs } : {}),
+  });
+  return { well, referenceTemperatureC, originMs, originSource, history, series, fingerprint, windowFromMs, windowToMs };
 }
 
 /** A fit as computed, before it is stored: all that fitWell answers but the stored record. */
@@ -86,7 +109,7 @@ export function fitServices(ctx: ServiceContext) {
    * does not store it (only an explicit fit leaves a record). `req` is already checked;
    * `liveReadings` as for prepareSeries.
    */
-  function computeFit(req: FitWellRequest, liveReadings?: readonly Reading[]): FitRun {
+  function computeFit(req: FitWellRequest, liveReadings?: readonly SeriesReading[]): FitRun {
     const { well } = ctx.well(req);
     const basis = req.basis ?? 'time';
     const model: ModelChoice = req.model ?? 'exponential';
@@ -95,7 +118,8 @@ export function fitServices(ctx: ServiceContext) {
     const prepared = prepareSeries(ctx, well, basis, fromMs, toMs, liveReadings);
     const s = prepared.series;
     const decline: DeclineSeries = { basis, x: s.x, theta: s.theta, include: s.include };
-    const fit = model === 'auto' ? fitAuto(decline) : fitDecline(decline, model);
+    const fitted = model === 'auto' ? fitAuto(decline) : fitDecline(decline, model);
+    const fit = req.residuals === false ? withoutResiduals(fitted) : fitted;
     const points: FitPoint[] = req.points === false ? [] : s.readings.map((r, i) => ({
       readingId: r.id,
       time: isoOf(r.timeMs),
@@ -128,7 +152,7 @@ export function fitServices(ctx: ServiceContext) {
     const { response, prepared } = run;
     const stored = store.insert({
       wellId: prepared.well.id, model: response.model, basis: response.basis, windowFromMs: prepared.windowFromMs, windowToMs: prepared.windowToMs,
-      resultJson: resultJsonText(response.fit), fingerprint: prepared.fingerprint, engineVersion: engineVersion(), createdMs: ctx.now(),
+      resultJson: resultJsonText(withoutResiduals(response.fit)), fingerprint: prepared.fingerprint, engineVersion: engineVersion(), createdMs: ctx.now(),
     });
     const { assumptions, ...rest } = response;
     return {
@@ -157,7 +181,7 @@ export function fitServices(ctx: ServiceContext) {
       let current: string | null = null;
       let problem = '';
       try {
-        current = prepareSeries(ctx, well, latest.basis, latest.windowFromMs, latest.windowToMs).fingerprint;
+        current = selectReadings(ctx, well, latest.basis, latest.windowFromMs, latest.windowToMs).fingerprint;
       } catch (e) {
         if (!(e instanceof InputError)) throw e;
         problem = e.reason;
@@ -184,6 +208,19 @@ export function fitServices(ctx: ServiceContext) {
       };
     },
   };
+}
+
+const NONE = new Float64Array(0);
+
+/**
+ * A fit without its per-point x and residuals (nor its candidates'): what a stored record keeps,
+ * and what a response gives on `residuals: false`. They follow from the readings the fingerprint
+ * names and the fitted parameters, and on a million readings they are a hundred megabytes.
+ */
+export function withoutResiduals<T extends FitResult>(fit: T): T {
+  const out = { ...fit, x: NONE, residuals: NONE };
+  if ('candidates' in fit) (out as unknown as AutoFitResult).candidates = (fit as unknown as AutoFitResult).candidates.map((c) => withoutResiduals(c));
+  return out;
 }
 
 function fitAssumptions(p: PreparedSeries): string[] {

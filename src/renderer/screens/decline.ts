@@ -387,7 +387,7 @@ class DeclineView {
 
   private fitRequest(): FitWellRequest {
     const c = this.choices;
-    const request: FitWellRequest = { well: this.wellName, field: this.fieldName, model: c.model, basis: c.basis, points: false };
+    const request: FitWellRequest = { well: this.wellName, field: this.fieldName, model: c.model, basis: c.basis, points: false, residuals: false };
     if (c.window.fromMs !== null) request.from = isoOfMs(c.window.fromMs);
     if (c.window.toMs !== null) request.to = isoOfMs(c.window.toMs);
     return request;

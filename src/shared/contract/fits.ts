@@ -29,10 +29,16 @@ export interface FitWellRequest extends WellRef {
   /** Default 'time'. */
   basis?: Basis;
   /**
-   * Default true. False leaves `points` empty: a screen that draws the readings from wellSeries
+   * Default true. False leaves `points` empty: a screen that draws the readings from chartSeries
    * (overview.ts) need not receive a million point records with the fit.
    */
   points?: boolean;
+  /**
+   * Default true. False leaves each fit's `x` and `residuals` (its own and every candidate's) empty:
+   * a screen that computes the residuals from the readings it draws and the fitted parameters need
+   * not receive them (on a million readings, a hundred megabytes of numbers).
+   */
+  residuals?: boolean;
 }
 
 export type ExclusionReason = 'not-producing' | 'flagged' | 'no-temperature' | 'before-time-zero';
@@ -155,6 +161,7 @@ const optionalWindow = {
   model: optional(oneOf(MODEL_CHOICES)),
   basis: optional(oneOf(BASES)),
   points: optional(boolean()),
+  residuals: optional(boolean()),
 };
 
 export const FIT_WELL_REQUEST: Schema<FitWellRequest> = object(optionalWindow);
