@@ -221,7 +221,7 @@ const max = (rows, key) => Math.max(...rows.map((r) => r[key]));
 
 function summarise(m) {
   return {
-    openMs: med(m.openings, 'drawnMs'), openFrameMs: med(m.openings, 'frameMs'), openServerMs: med(m.openings, 'serverMs'),
+    openMs: med(m.openings, 'drawnMs'), openFirstMs: m.openings[0].drawnMs, openMaxMs: max(m.openings, 'drawnMs'), openFrameMs: med(m.openings, 'frameMs'), openServerMs: med(m.openings, 'serverMs'),
     openTransferMs: med(m.openings, 'transferMs'), openBrowserMs: med(m.openings, 'browserMs'), fitShownMs: med(m.openings, 'fitShownMs'),
     zoomMedianMs: med(m.zoom, 'redrawMs'), zoomMaxMs: max(m.zoom, 'redrawMs'), zoomFrameMaxMs: max(m.zoom, 'frameMs'),
     windowMedianMs: med(m.windows, 'redrawMs'), windowMaxMs: max(m.windows, 'redrawMs'), windowFrameMaxMs: max(m.windows, 'frameMs'),
@@ -273,7 +273,8 @@ export async function run({ quick = false } = {}) {
     const s = measured[small].summary;
     const l = measured[large].summary;
     const svc = (w, k) => measured[w].serviceMs[k];
-    const checks = { open: l.openMs <= OPEN_TARGET_MS, zoom: l.zoomMaxMs <= REDRAW_TARGET_MS, window: l.windowMaxMs <= REDRAW_TARGET_MS };
+    // Every opening, the first (cold) one included, must meet the target: a user opens a well once.
+    const checks = { open: l.openMaxMs <= OPEN_TARGET_MS, zoom: l.zoomMaxMs <= REDRAW_TARGET_MS, window: l.windowMaxMs <= REDRAW_TARGET_MS };
     const failed = !(checks.open && checks.zoom && checks.window);
     const ok = (b) => (b ? 'met' : '**missed**');
     const ratio = (a, b) => (Number.isFinite(a) && Number.isFinite(b) && b > 0 ? `${(a / b).toFixed(1)}×` : '—');
@@ -281,10 +282,12 @@ export async function run({ quick = false } = {}) {
     const largeLabel = `${largeN.toLocaleString('en-US')} readings`;
     const markdown = [
       quick ? `Quick run: ${largeN.toLocaleString('en-US')} readings instead of ${LARGE_N.toLocaleString('en-US')}, one opening of each well; the targets are checked on the smaller well.\n` : '',
-      `Times in ms; openings: median of ${opens}; zoom: ${ZOOM_STEPS} wheel steps (5 in, 5 out); window: ${WINDOW_CHANGES} Shift+drags. "Frame" = the first animation frame after the mark (the pixels on screen).\n`,
+      `Times in ms; openings: ${opens} (the first one cold; the parts of an opening are medians); zoom: ${ZOOM_STEPS} wheel steps (5 in, 5 out); window: ${WINDOW_CHANGES} Shift+drags. "Frame" = the first animation frame after the mark (the pixels on screen).\n`,
       markdownTable(['measure', `${SMALL_N.toLocaleString('en-US')} readings (baseline)`, largeLabel, 'ratio', 'target', ''], [
-        row('open route → chart drawn', s.openMs, l.openMs, `≤ ${OPEN_TARGET_MS}`, ok(checks.open)),
-        row('… → first frame after it', s.openFrameMs, l.openFrameMs),
+        row('open route → chart drawn, first opening', s.openFirstMs, l.openFirstMs),
+        row('open route → chart drawn, median', s.openMs, l.openMs),
+        row('open route → chart drawn, max', s.openMaxMs, l.openMaxMs, `≤ ${OPEN_TARGET_MS}`, ok(checks.open)),
+        row('… → first frame after it (median)', s.openFrameMs, l.openFrameMs),
         row('… of which back end (time to first byte)', s.openServerMs, l.openServerMs),
         row('… of which chartSeries service alone', svc(small, 'chartSeries'), svc(large, 'chartSeries')),
         row('… of which transfer', s.openTransferMs, l.openTransferMs),

@@ -130,6 +130,26 @@ describe('datasets from the columns', () => {
   });
 });
 
+describe('the same columns as typed arrays (chartSeries decoded: NaN where wellSeries has null)', () => {
+  const typed = (s: SeriesColumns): SeriesColumns => ({
+    ...s,
+    timeS: Float64Array.from(s.timeS),
+    x: Float64Array.from(Array.from(s.x, (v) => v ?? NaN)),
+    productionTemperatureC: Float64Array.from(Array.from(s.productionTemperatureC, (v) => v ?? NaN)),
+    exclusion: Uint8Array.from(s.exclusion),
+  });
+
+  it('gives the same datasets, latest reading and extent on both bases', () => {
+    const time = series('time');
+    expect(readingDatasets(typed(time), TIME_AXIS, yMap(SI, 'theta', 70))).toEqual(readingDatasets(time, TIME_AXIS, yMap(SI, 'theta', 70)));
+    expect(latestIncluded(typed(time))).toBe(latestIncluded(time));
+    const mass = { ...series('mass'), x: [null, 1e9, 2e9, 3e9, 4e9] };
+    const axis: XAxis = { basis: 'mass', ...massUnit('si') };
+    expect(readingDatasets(typed(mass), axis, yMap(SI, 'temperature', 70))).toEqual(readingDatasets(mass, axis, yMap(SI, 'temperature', 70)));
+    expect(readingsExtent(typed(mass), axis)).toEqual(readingsExtent(mass, axis));
+  });
+});
+
 describe('coarse levels for zoomed-out views', () => {
   it('halves each level, keeps the lowest and highest of every four points in x order, and reuses the objects', () => {
     const pts: Point[] = [3, 9, 1, 5, 2, 2, 8, 0].map((y, x) => ({ x, y }));

@@ -13,17 +13,26 @@ import type { Display } from '../app/display.js';
 
 export interface Point { x: number; y: number }
 
-/** What the chart reads of a WellSeriesResponse (wire form: nulls where a value is missing). */
+/**
+ * What the chart reads of a well's series: wellSeries's wire form (arrays with null where a value is
+ * missing) or chartSeries decoded (packed-series.ts: typed arrays with NaN there). Either way a
+ * value that is null or NaN is missing; read it through `present`.
+ */
 export interface SeriesColumns {
   basis: Basis;
   /** Epoch of timeS, ms. */
   epochMs: number;
   timeS: ArrayLike<number>;
-  /** Basis value: s after time zero, or kg produced since time zero; null before time zero. */
-  x: readonly (number | null)[];
-  productionTemperatureC: readonly (number | null)[];
+  /** Basis value: s after time zero, or kg produced since time zero; missing before time zero. */
+  x: ArrayLike<number | null>;
+  productionTemperatureC: ArrayLike<number | null>;
   /** EXCLUSION_CODES (0 = included). */
   exclusion: ArrayLike<number>;
+}
+
+/** A column value that is there: neither null nor NaN. */
+export function present(v: number | null): v is number {
+  return v !== null && !Number.isNaN(v);
 }
 
 export type YQuantity = 'temperature' | 'theta';
@@ -85,7 +94,7 @@ export function shownOfCelsius(map: YMap, celsius: number): number {
 export function chartXOfReading(series: SeriesColumns, axis: XAxis, i: number): number | null {
   if (axis.basis === 'time') return series.epochMs + 1000 * series.timeS[i];
   const kg = series.x[i];
-  return kg === null || !Number.isFinite(kg) ? null : kg * axis.perKg;
+  return !present(kg) || !Number.isFinite(kg) ? null : kg * axis.perKg;
 }
 
 export interface ReadingDatasets {
@@ -106,7 +115,8 @@ export function readingDatasets(series: SeriesColumns, axis: XAxis, map: YMap): 
   const n = series.timeS.length;
   const temps = series.productionTemperatureC;
   const code = series.exclusion;
-  const drawable = (i: number): boolean => temps[i] !== null && (axis.basis === 'time' || (series.x[i] !== null && Number.isFinite(series.x[i])));
+  const xs = series.x;
+  const drawable = (i: number): boolean => present(temps[i]) && (axis.basis === 'time' || Number.isFinite(xs[i]));
   let includedCount = 0;
   let includedDrawn = 0;
   let excludedDrawn = 0;
@@ -133,7 +143,7 @@ export function readingDatasets(series: SeriesColumns, axis: XAxis, map: YMap): 
 /** Index of the latest reading the fit would use that has a production temperature; -1 when none. */
 export function latestIncluded(series: SeriesColumns): number {
   for (let i = series.timeS.length - 1; i >= 0; i--) {
-    if (series.exclusion[i] === 0 && series.productionTemperatureC[i] !== null) return i;
+    if (series.exclusion[i] === 0 && present(series.productionTemperatureC[i])) return i;
   }
   return -1;
 }

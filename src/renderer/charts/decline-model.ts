@@ -6,7 +6,7 @@
  */
 import { declineValue } from '../../shared/fit/models.js';
 import type { DeclineModel, DeclineParameters } from '../../shared/fit/types.js';
-import { chartXOfBasis, type Point, type SeriesColumns, type XAxis, type YMap } from './decline-data.js';
+import { chartXOfBasis, present, type Point, type SeriesColumns, type XAxis, type YMap } from './decline-data.js';
 
 /** Enough for a smooth curve on any screen width; the band comes on the forecast's own grid. */
 export const CURVE_GRID_POINTS = 300;
@@ -128,7 +128,7 @@ export function residualPoints(series: SeriesColumns, model: DeclineModel, p: De
     if (series.exclusion[i] !== 0) continue;
     const c = series.productionTemperatureC[i];
     const xb = series.x[i];
-    if (c === null || xb === null) continue;
+    if (!present(c) || !present(xb)) continue;
     const tMs = series.epochMs + 1000 * series.timeS[i];
     if (tMs < from || tMs > to) continue;
     const r = c - map.trefC - declineValue(model, p, xb);

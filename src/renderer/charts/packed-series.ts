@@ -1,11 +1,11 @@
 /**
  * chartSeries's packed columns (contract/overview.ts PackedSeriesColumns) decoded into the columns
- * the decline chart reads (SeriesColumns in decline-data.ts): base64 → bytes → typed arrays, then
- * the contract's "none" (NaN in the packed form) back to null where the chart code expects it.
+ * the decline chart reads (SeriesColumns in decline-data.ts): base64 → bytes → typed arrays over
+ * the decoded bytes (no copy), NaN standing for a missing value as in the packed form.
  * Pure (no DOM): `atob` and `Uint8Array.fromBase64` are globals of browsers and of Node alike.
  *
  * Exported API:
- *   decodeChartSeries(response): DecodedSeries   SeriesColumns with count, timeOrigin and Tref; timeS and exclusion typed arrays
+ *   decodeChartSeries(response): DecodedSeries   SeriesColumns with count, timeOrigin and Tref, every column a typed array
  *   bytesOfBase64(text): Uint8Array
  */
 import type { Wire } from '../../shared/contract/channels.js';
@@ -31,13 +31,13 @@ function float64s(text: string, count: number, what: string): Float64Array {
   return new Float64Array(bytes.buffer, bytes.byteOffset, count);
 }
 
-const orNull = (v: number): number | null => (Number.isNaN(v) ? null : v);
-
 export interface DecodedSeries extends SeriesColumns {
   count: number;
   timeOrigin: string | null;
   referenceTemperatureC: number | null;
   timeS: Float64Array;
+  x: Float64Array;
+  productionTemperatureC: Float64Array;
   exclusion: Uint8Array;
 }
 
@@ -49,15 +49,15 @@ export function decodeChartSeries(r: Wire<ChartSeriesResponse>): DecodedSeries {
   if (exclusion.length !== n) throw new Error(`chartSeries: exclusion holds ${exclusion.length} bytes, not ${n}`);
   const timeS = new Float64Array(n);
   for (let i = 0; i < n; i++) timeS[i] = (timeMs[i] - r.epochMs) / 1000;
-  let x: (number | null)[];
-  if (r.columns.x !== null) x = Array.from(float64s(r.columns.x, n, 'x'), orNull);
+  let x: Float64Array;
+  if (r.columns.x !== null) x = float64s(r.columns.x, n, 'x');
   else {
     // The time basis: s after time zero, none before it (as wellSeries's x).
     const origin = r.timeOrigin === null ? Infinity : Date.parse(r.timeOrigin);
-    x = new Array<number | null>(n);
-    for (let i = 0; i < n; i++) x[i] = timeMs[i] < origin ? null : (timeMs[i] - origin) / 1000;
+    x = new Float64Array(n);
+    for (let i = 0; i < n; i++) x[i] = timeMs[i] < origin ? NaN : (timeMs[i] - origin) / 1000;
   }
   return {
-    basis: r.basis, epochMs: r.epochMs, count: n, timeOrigin: r.timeOrigin, referenceTemperatureC: r.referenceTemperatureC, timeS, x, productionTemperatureC: Array.from(temperatures, orNull), exclusion,
+    basis: r.basis, epochMs: r.epochMs, count: n, timeOrigin: r.timeOrigin, referenceTemperatureC: r.referenceTemperatureC, timeS, x, productionTemperatureC: temperatures, exclusion,
   };
 }
