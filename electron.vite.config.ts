@@ -11,7 +11,13 @@ export default defineConfig({
       // dist/main/db, because the field log finds migrations/ (and package.json) three folders up from
       // its own module. out/main/index.js (package.json "main") only imports it.
       rollupOptions: {
-        input: { index: resolve('src/main/desktop/entry.ts'), 'desktop/index': resolve('src/main/desktop/index.ts') },
+        // The reader thread of long series (services/time-column.ts) loads ./series-worker.js beside the
+        // module that starts it: out/main/desktop/, where the app's code and its chunks are.
+        input: {
+          index: resolve('src/main/desktop/entry.ts'),
+          'desktop/index': resolve('src/main/desktop/index.ts'),
+          'desktop/series-worker': resolve('src/main/services/series-worker.ts'),
+        },
         output: { chunkFileNames: 'desktop/[name]-[hash].js' },
         external: ['better-sqlite3', 'electron'],
       },

@@ -7,8 +7,9 @@
 // The field log is invented and built for the run: one field, two production wells, readings written
 // with one prepared INSERT in one transaction (θ = 20 K + 50 K·e^(−t/12 yr) + 0.3 K noise above a Tref
 // of 70 °C over 1,500 weeks, as bench/fit.mjs; 1 % shut-in, 0.1 % flagged bad; ~40 kg/s). It is served
-// by the loopback server (dist/main/server) with the renderer built by vite into the same temporary
-// folder. Times come from the page's own clock: the screen's performance marks
+// by the loopback server (dist/main/server) with the services as `tauwell serve` makes them (the
+// second reader thread of long series included: parallelReads) and the renderer built by vite into
+// the same temporary folder. Times come from the page's own clock: the screen's performance marks
 // (tauwell:decline:chart-drawn, tauwell:decline:redrawn, tauwell:decline:fit-shown) against the
 // instant of the navigation or of the input event (a capturing listener on window), and the fetch's
 // resource timing for the back end's share (time to first byte = the service, its wire encoding and
@@ -251,7 +252,7 @@ export async function run({ quick = false } = {}) {
     const { createServices } = await import('../dist/main/services/index.js');
     const { startLoopbackServer } = await import('../dist/main/server/index.js');
     fdb = openDatabase(file);
-    server = await startLoopbackServer({ services: timedServices(createServices(fdb, { who: 'bench' }), serviceLog), staticDir: join(dir, 'renderer') });
+    server = await startLoopbackServer({ services: timedServices(createServices(fdb, { who: 'bench', parallelReads: true }), serviceLog), staticDir: join(dir, 'renderer') });
     const { chromium } = await import('playwright-core');
     browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS });
     const page = await browser.newPage({ viewport: { width: 1400, height: 1000 } });

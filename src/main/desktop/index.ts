@@ -43,7 +43,7 @@ function start(): void {
   switcher = createLogSwitcher({
     // Only the default log is built from the demo: a log the user creates starts empty.
     open: (file) => openFieldLogFile(file, { ...(nativeBinding !== undefined ? { nativeBinding } : {}), demoWhenNew: resolve(file) === defaultLog }),
-    services: (fdb) => createServices(fdb, { who: who(), ...(nativeBinding !== undefined ? { nativeBinding } : {}) }),
+    services: (fdb) => createServices(fdb, { who: who(), parallelReads: true, ...(nativeBinding !== undefined ? { nativeBinding } : {}) }),
     register: (services) => registerIpc({ services, isAppDocument: location.isAppDocument }),
     reload: () => mainWindow?.webContents.reload(),
   });

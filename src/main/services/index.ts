@@ -3,7 +3,7 @@
  * server) calls these methods, each of which checks its request with the contract's schema
  * (src/shared/contract) and returns the contract's response type.
  *
- *   createServices(fdb: FieldDb, options?: { who?, now?, nativeBinding?, stagingDir? }): Services
+ *   createServices(fdb: FieldDb, options?: { who?, now?, nativeBinding?, stagingDir?, parallelReads? }): Services
  *   closeServices(services): Promise<void>   cancels a running import, removes staged uploads
  *
  * The services object holds exactly the contract's methods (REQUEST_SCHEMAS), so that what a
@@ -25,6 +25,7 @@ import { readingServices } from './readings.js';
 import { createReportService } from './report.js';
 import { reservoirServices } from './reservoirs.js';
 import { settingsServices } from './settings.js';
+import { ColumnReader } from './column-reader.js';
 import { wellSeriesServices } from './well-series.js';
 import { wellServices } from './wells.js';
 
@@ -36,6 +37,11 @@ export interface CreateServicesOptions extends ServiceOptions {
   nativeBinding?: string;
   /** Where uploaded files are staged; default a private folder under the system's temporary folder. */
   stagingDir?: string;
+  /**
+   * Read long series with two reader threads (services/column-reader.ts): for the long-running front ends (the
+   * loopback server, the desktop shell); a command that runs once does not need the second thread.
+   */
+  parallelReads?: boolean;
 }
 
 const closers = new WeakMap<TauwellServices, () => Promise<void>>();
@@ -45,6 +51,7 @@ export function createServices(fdb: FieldDb, options: CreateServicesOptions = {}
   const { close: closeImports, importing, ...importApi } = createImportApi(fdb, options);
   const fits = fitServices(ctx);
   const forecasts = forecastServices(ctx, fits);
+  const timeReader = options.parallelReads === true ? new ColumnReader(fdb, options.nativeBinding) : null;
   const services: TauwellServices = {
     ...wellServices(ctx),
     ...readingServices(ctx),
@@ -59,7 +66,7 @@ export function createServices(fdb: FieldDb, options: CreateServicesOptions = {}
     },
     ...settingsServices(ctx),
     fieldOverview: overviewServices(ctx, fits, forecasts).fieldOverview,
-    ...wellSeriesServices(ctx),
+    ...wellSeriesServices(ctx, timeReader),
     ...importApi,
     makeReport: async (request) => {
       const req = validate(REQUEST_SCHEMAS.makeReport, request) as MakeReportRequest;
@@ -86,7 +93,10 @@ export function createServices(fdb: FieldDb, options: CreateServicesOptions = {}
   const reports = createReportService(services, fdb);
   // A write on this connection while an import job holds the write lock is refused in plain words.
   const guarded = guardBusyWrites(services, importing);
-  closers.set(guarded, closeImports);
+  closers.set(guarded, async () => {
+    await timeReader?.close();
+    await closeImports();
+  });
   return guarded;
 }
 

@@ -12,12 +12,13 @@
  * flagged, deleted: a few in a hundred) holds the marker 'S' instead; the flows where they are
  * needed. Those few readings come from their own index (migration 0004) with their status, flags
  * and temperature, in the same order, and are taken in turn at each marker. All in one read
- * transaction. wellSeries turns the typed columns into the contract's arrays, chartSeries into
+ * transaction. With a ColumnReader (column-reader.ts) the instants and temperatures are read on
+ * two threads meanwhile. wellSeries turns the typed columns into the contract's arrays, chartSeries into
  * base64. On the mass basis a reading's M is the counter's total as it takes the reading in;
  * flagged and deleted readings get theirs from a search afterwards.
  *
  * Exported API:
- *   wellSeriesServices(ctx): { wellSeries(request): WellSeriesResponse; chartSeries(request): ChartSeriesResponse }
+ *   wellSeriesServices(ctx, threads?: ColumnReader | null): { wellSeries(request): WellSeriesResponse; chartSeries(request): ChartSeriesResponse }
  */
 import {
   CHART_SERIES_REQUEST, EXCLUSION_CODES, WELL_SERIES_REQUEST,
@@ -30,15 +31,12 @@ import type { Basis } from '../../shared/fit/types.js';
 import { ProducedMassCounter, exclusionOf, isFlaggedOut } from '../../shared/series/well-series.js';
 import type { Well } from '../db/wells.js';
 import type { ServiceContext } from './context.js';
+import type { ColumnReader } from './column-reader.js';
+import { NOT_PLAIN, SPECIAL, columnSql, seriesOrder } from './column-sql.js';
 import { timeOriginOf } from './fits.js';
 import { wellInfo } from './views.js';
 
 const DELETED = EXCLUSION_CODES.deleted;
-/** A plain reading: producing, no flags, live. Its negation is the condition of the index readings_special (migration 0004). */
-const PLAIN = "status = 'producing' AND flags = '' AND deleted_ms IS NULL";
-const SPECIAL = "(status <> 'producing' OR flags <> '' OR deleted_ms IS NOT NULL)";
-/** What the temperature column holds for a reading that is not plain (SQLite columns are dynamically typed). */
-const NOT_PLAIN = 'S';
 
 /** The readings of one well as typed columns; NaN where a value is missing. */
 interface Columns {
@@ -60,26 +58,28 @@ interface Columns {
 /** id, status, flags, deleted_ms, production_temperature_c of a reading that is not plain. */
 type SpecialRow = [number, ReadingStatus, string, number | null, number | null];
 
-export function wellSeriesServices(ctx: ServiceContext) {
+/** `threads`: the reader threads of the instants and temperatures (column-reader.ts), or null to read every column here. */
+export function wellSeriesServices(ctx: ServiceContext, threads: ColumnReader | null = null) {
   const db = ctx.fdb.db;
-  // Each column is read on its own as bare values (`pluck`), in the same order: the live queries
-  // walk the partial index (well_id, time_ms) WHERE deleted_ms IS NULL.
-  const order = (includeDeleted: boolean): string => (includeDeleted ? 'well_id = ? ORDER BY time_ms, id' : 'well_id = ? AND deleted_ms IS NULL ORDER BY time_ms');
-  const column = (expression: string, includeDeleted: boolean) => db.prepare<[number], number | string | null>(`SELECT ${expression} FROM readings WHERE ${order(includeDeleted)}`).pluck(true);
+  // Each column is read on its own as bare values (`pluck`), in the same order (column-sql.ts): the
+  // live queries walk the partial index (well_id, time_ms) WHERE deleted_ms IS NULL.
+  const column = (sql: string) => db.prepare<[number], number | string | null>(sql).pluck(true);
   const columns = [false, true].map((includeDeleted) => ({
-    time: column('time_ms', includeDeleted),
-    temperature: column(`CASE WHEN ${PLAIN} THEN production_temperature_c ELSE '${NOT_PLAIN}' END`, includeDeleted),
-    flow: column('normalised_mass_flow_kg_s', includeDeleted),
-    id: column('id', includeDeleted),
+    time: column(columnSql('time', includeDeleted)),
+    temperature: column(columnSql('temperature', includeDeleted)),
+    flow: column(`SELECT normalised_mass_flow_kg_s FROM readings WHERE ${seriesOrder(includeDeleted)}`),
+    id: column(`SELECT id FROM readings WHERE ${seriesOrder(includeDeleted)}`),
     special: db.prepare<[number], SpecialRow>(
       `SELECT id, status, flags, deleted_ms, production_temperature_c FROM readings INDEXED BY readings_special
        WHERE well_id = ? ${includeDeleted ? '' : 'AND deleted_ms IS NULL '}AND ${SPECIAL} ORDER BY time_ms, id`,
     ).raw(true),
   }));
   const firstLive = db.prepare<[number], { t: number | null }>('SELECT min(time_ms) AS t FROM readings WHERE well_id = ? AND deleted_ms IS NULL');
+  const countLive = db.prepare<[number], number>('SELECT count(*) FROM readings WHERE well_id = ? AND deleted_ms IS NULL').pluck(true);
+  const countAll = db.prepare<[number], number>('SELECT count(*) FROM readings WHERE well_id = ?').pluck(true);
 
   // One read transaction: every column is read from the same readings.
-  const read = db.transaction((req: WellSeriesRequest, withIds: boolean): Columns => {
+  const read = db.transaction((req: WellSeriesRequest, withIds: boolean, parallel: boolean): Columns & { parallel: boolean } => {
     const { well } = ctx.well(req);
     const basis = req.basis ?? 'time';
     if (basis === 'mass' && well.kind !== 'production') {
@@ -91,32 +91,40 @@ export function wellSeriesServices(ctx: ServiceContext) {
     const origin = originMs ?? Infinity; // without a time zero every reading lies "before" it (no live reading at all)
     const counter = basis === 'mass' && originMs !== null ? new ProducedMassCounter(originMs) : null;
 
-    const times = q.time.all(well.id) as number[];
-    const temperatures = q.temperature.all(well.id);
+    // The instants and temperatures on the reader threads where there are some, while this one reads the rest.
+    const includeDeleted = req.includeDeleted === true;
+    const count = parallel && threads !== null ? ((includeDeleted ? countAll : countLive).get(well.id) as number) : 0;
+    const waitForTimes = parallel && threads !== null ? threads.start('time', well.id, includeDeleted, count) : null;
+    const waitForTemperatures = parallel && threads !== null ? threads.start('temperature', well.id, includeDeleted, count) : null;
     const flows = counter !== null || withIds ? (q.flow.all(well.id) as (number | null)[]) : null;
     const specials = q.special.all(well.id) as SpecialRow[];
-    const n = times.length;
-    const timeMs = Float64Array.from(times);
+    const timesFromThread = waitForTimes?.() ?? null;
+    const temperaturesFromThread = waitForTemperatures?.() ?? null;
+    const timeMs = timesFromThread?.values ?? Float64Array.from(q.time.all(well.id) as number[]);
+    const n = timeMs.length;
+    const fromThread = temperaturesFromThread === null ? null : { values: temperaturesFromThread.values, marks: temperaturesFromThread.marks as Uint8Array };
+    const { values: temperatureC, marks } = fromThread ?? temperatureColumn(q.temperature.all(well.id), n);
     const x = new Float64Array(n);
-    const temperatureC = new Float64Array(n);
     const exclusion = new Uint8Array(n);
     const pending: number[] = [];
     let k = 0;
     for (let i = 0; i < n; i++) {
       const t = timeMs[i];
       const flow = flows === null ? null : flows[i];
-      let temperature = temperatures[i] as number | null;
+      let temperature: number | null = temperatureC[i];
       let status: ReadingStatus = 'producing';
       let flaggedOut = false;
       let deleted = false;
-      if (typeof temperature === 'string') {
+      if (marks[i] === 1) {
         // The next reading that is not plain, in the same order.
         const row = specials[k++];
+        if (row === undefined) throw new ColumnsDisagree(`wellSeries: ${well.name} has more readings marked as not plain than ${specials.length}`);
         status = row[1];
         flaggedOut = row[2] !== '' && isFlaggedOut(row[2].split(','));
         deleted = row[3] !== null;
         temperature = row[4];
-      }
+        temperatureC[i] = temperature ?? NaN;
+      } else if (Number.isNaN(temperature)) temperature = null;
       let counted = false;
       if (deleted) exclusion[i] = DELETED;
       else {
@@ -127,19 +135,34 @@ export function wellSeriesServices(ctx: ServiceContext) {
       else if (counter === null) x[i] = (t - origin) / 1000;
       else if (counted) x[i] = counter.totalKg;
       else pending.push(i); // a flagged or deleted reading: its M needs the next trusted reading
-      temperatureC[i] = temperature ?? NaN;
     }
-    if (k !== specials.length || temperatures.length !== n) {
-      throw new Error(`wellSeries: the columns of ${well.name} disagree (${n} instants, ${temperatures.length} temperatures, ${k} of ${specials.length} other readings)`);
+    if (k !== specials.length || temperatureC.length !== n || (flows !== null && flows.length !== n)) {
+      throw new ColumnsDisagree(`wellSeries: the columns of ${well.name} disagree (${n} instants, ${temperatureC.length} temperatures, ${k} of ${specials.length} other readings)`);
     }
     if (counter !== null) for (const j of pending) x[j] = counter.massAt(timeMs[j]);
     const nanOfNull = (v: number | null): number => v ?? NaN;
     return {
+      parallel: timesFromThread !== null || temperaturesFromThread !== null,
       well, basis, originMs, count: n, epochMs: n > 0 ? timeMs[0] : (originMs ?? 0), timeMs, x, temperatureC, exclusion,
       flowKgPerS: withIds && flows !== null ? Float64Array.from(flows, nanOfNull) : null,
       ids: withIds ? Float64Array.from(q.id.all(well.id) as number[]) : null,
     };
   });
+
+  /** The columns, read with the threads when there are some, and again without them if another connection committed meanwhile. */
+  const columnsOf = (req: WellSeriesRequest, withIds: boolean): Columns => {
+    if (threads === null) return read(req, withIds, false);
+    const before = threads.dataVersion();
+    let c: Columns & { parallel: boolean };
+    try {
+      c = read(req, withIds, true);
+    } catch (e) {
+      // A thread saw other readings than this connection (a commit between their snapshots).
+      if (e instanceof ColumnsDisagree) return read(req, withIds, false);
+      throw e;
+    }
+    return !c.parallel || threads.dataVersion() === before ? c : read(req, withIds, false);
+  };
 
   const head = (c: Columns) => ({
     well: wellInfo(ctx, c.well),
@@ -152,7 +175,7 @@ export function wellSeriesServices(ctx: ServiceContext) {
 
   return {
     wellSeries(request: WellSeriesRequest): WellSeriesResponse {
-      const c = read(validate(WELL_SERIES_REQUEST, request), true);
+      const c = columnsOf(validate(WELL_SERIES_REQUEST, request), true);
       const orNull = (v: number): number | null => (Number.isNaN(v) ? null : v);
       return {
         ...head(c),
@@ -165,7 +188,7 @@ export function wellSeriesServices(ctx: ServiceContext) {
       };
     },
     chartSeries(request: WellSeriesRequest): ChartSeriesResponse {
-      const c = read(validate(CHART_SERIES_REQUEST, request), false);
+      const c = columnsOf(validate(CHART_SERIES_REQUEST, request), false);
       return {
         ...head(c),
         columns: {
@@ -177,6 +200,24 @@ export function wellSeriesServices(ctx: ServiceContext) {
       };
     },
   };
+}
+
+/** Columns of one series that do not line up: a bug when one thread read them all. */
+class ColumnsDisagree extends Error {}
+
+/** The temperature column as read here: values with NaN for none and the marks of readings that are not plain. */
+function temperatureColumn(values: (number | string | null)[], n: number): { values: Float64Array; marks: Uint8Array } {
+  const out = new Float64Array(values.length);
+  const marks = new Uint8Array(values.length);
+  for (let i = 0; i < values.length; i++) {
+    const v = values[i];
+    if (v === NOT_PLAIN) {
+      out[i] = NaN;
+      marks[i] = 1;
+    } else out[i] = v === null ? NaN : (v as number);
+  }
+  if (values.length !== n) throw new ColumnsDisagree(`wellSeries: ${values.length} temperatures for ${n} instants`);
+  return { values: out, marks };
 }
 
 const LITTLE_ENDIAN = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;

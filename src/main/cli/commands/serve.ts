@@ -38,7 +38,7 @@ export async function serve(args: ParsedArgs, io: CliIo, waitForStop: () => Prom
   const port = args.integer('port', 0);
   if (port !== undefined && port > 65535) throw new InputError(`must be a whole number from 0 to 65535 (got ${port})`, { field: '--port' });
   const fdb = openFieldLog(args, io);
-  const services = createServices(fdb, { who: whoOf(args) });
+  const services = createServices(fdb, { who: whoOf(args), parallelReads: true });
   try {
     let server;
     try {

@@ -1,0 +1,36 @@
+/**
+ * The column queries of a well's series, shared by services/well-series.ts and its reader threads
+ * (series-worker.ts), so both read the same values in the same order.
+ *
+ * A plain reading is producing, without flags and live; the others (shut-in or test, flagged,
+ * deleted: a few in a hundred) hold NOT_PLAIN in the temperature column and are read with their
+ * status and flags through the partial index readings_special (migration 0004), in the same order.
+ *
+ * Exported API:
+ *   type SeriesColumn = 'time' | 'temperature';  interface ColumnJob { column; wellId; includeDeleted }
+ *   NOT_PLAIN, PLAIN, SPECIAL: SQL conditions and marker
+ *   columnSql(column, includeDeleted): string      one value a row, to be read with pluck
+ */
+export type SeriesColumn = 'time' | 'temperature';
+
+export interface ColumnJob {
+  column: SeriesColumn;
+  wellId: number;
+  includeDeleted: boolean;
+}
+
+/** A plain reading: producing, no flags, live. Its negation is the condition of readings_special. */
+export const PLAIN = "status = 'producing' AND flags = '' AND deleted_ms IS NULL";
+export const SPECIAL = "(status <> 'producing' OR flags <> '' OR deleted_ms IS NOT NULL)";
+/** What the temperature column holds for a reading that is not plain (SQLite columns are dynamically typed). */
+export const NOT_PLAIN = 'S';
+
+/** The order of every column: the live readings by instant (the partial index), or all by instant and id. */
+export function seriesOrder(includeDeleted: boolean): string {
+  return includeDeleted ? 'well_id = ? ORDER BY time_ms, id' : 'well_id = ? AND deleted_ms IS NULL ORDER BY time_ms';
+}
+
+export function columnSql(column: SeriesColumn, includeDeleted: boolean): string {
+  const expression = column === 'time' ? 'time_ms' : `CASE WHEN ${PLAIN} THEN production_temperature_c ELSE '${NOT_PLAIN}' END`;
+  return `SELECT ${expression} FROM readings WHERE ${seriesOrder(includeDeleted)}`;
+}
