@@ -14,10 +14,9 @@ import { forecastDecline, type EconomicLimit } from '../../shared/forecast/forec
 import { DEFAULT_BACKGROUND_HEAT_FLOW_W_PER_M2, estimateRecharge } from '../../shared/forecast/recharge.js';
 import { parseReservoirParams, reservoirTheoryToJson } from '../../shared/reservoir/params.js';
 import { reservoirTheory } from '../../shared/reservoir/theory.js';
-import { meanFlowOverYear } from '../../shared/series/well-series.js';
+import { meanFlowOverYear, type SeriesReading } from '../../shared/series/well-series.js';
 import { JULIAN_YEAR_S } from '../../shared/units.js';
 import { liquidWater, saturationPressurePa } from '../../shared/water/iapws97.js';
-import type { Reading } from '../db/readings.js';
 import type { ServiceContext } from './context.js';
 import type { ComputedFit, FitRun, fitServices } from './fits.js';
 import { reservoirVersionJson } from './reservoirs.js';
@@ -34,7 +33,7 @@ export function forecastServices(ctx: ServiceContext, fits: ReturnType<typeof fi
    * The one forecast of a well; `req` is already checked, `liveReadings` as for prepareSeries
    * (fits.ts). The fit is returned unstored in `run`.
    */
-  function computeForecast(req: ForecastWellRequest, liveReadings?: readonly Reading[]): { forecast: ComputedForecast; run: FitRun } {
+  function computeForecast(req: ForecastWellRequest, liveReadings?: readonly SeriesReading[]): { forecast: ComputedForecast; run: FitRun } {
     const { limit: limitRequest, horizonYears: h, plannedFlowKgPerS, specificHeatJPerKgK, seed, samples, backgroundHeatFlowWPerM2, ...fitRequest } = req;
     const run = fits.computeFit(fitRequest, liveReadings);
     const { response: fitResponse, prepared } = run;

@@ -26,9 +26,8 @@ import type { WellSummary } from '../../shared/contract/wells.js';
 import { InputError } from '../../shared/errors.js';
 import type { Basis } from '../../shared/fit/types.js';
 import type { Interval } from '../../shared/forecast/recharge.js';
-import { exclusionOf, isFlaggedOut } from '../../shared/series/well-series.js';
+import { exclusionOf, isFlaggedOut, type SeriesReading } from '../../shared/series/well-series.js';
 import { JULIAN_YEAR_S } from '../../shared/units.js';
-import type { Reading } from '../db/readings.js';
 import { SettingsRepository } from '../db/settings.js';
 import type { Well } from '../db/wells.js';
 import type { ServiceContext } from './context.js';
@@ -49,7 +48,7 @@ export function overviewServices(ctx: ServiceContext, fits: Fits, forecasts: For
   const settingsRepo = new SettingsRepository(ctx.fdb);
   const wells = wellServices(ctx);
 
-  function wellRow(summary: WellSummary, well: Well, history: Reading[], settings: ReturnType<typeof readSettings>, fieldLatestMs: number, nowMs: number, withForecast: boolean): WellOverview {
+  function wellRow(summary: WellSummary, well: Well, history: readonly SeriesReading[], settings: ReturnType<typeof readSettings>, fieldLatestMs: number, nowMs: number, withForecast: boolean): WellOverview {
     const { limit } = economicLimitOf(settings, well.id);
     const row: WellOverview = {
       well: summary, thetaK: latestTheta(well, history), fit: null, theoryTauS: null,
@@ -131,7 +130,7 @@ export function overviewServices(ctx: ServiceContext, fits: Fits, forecasts: For
         fields: listed.fields.map(({ wells: summaries, ...field }) => {
           const logs = summaries.map((summary) => {
             const well = ctx.wells.get(summary.id) as Well;
-            return { summary, well, history: ctx.readings.listLive(well.id) };
+            return { summary, well, history: ctx.readings.listSeriesLive(well.id) };
           });
           const fieldLatestMs = Math.max(-Infinity, ...logs.map((l) => l.history.at(-1)?.timeMs ?? -Infinity));
           return {
@@ -170,7 +169,7 @@ function fitPart(run: FitRun, latest: StoredFit | undefined): NonNullable<WellOv
 }
 
 /** θ = Tprod − Tref of the latest reading a fit would use (producing, not flagged, with a temperature, from time zero). */
-function latestTheta(well: Well, history: readonly Reading[]): number | null {
+function latestTheta(well: Well, history: readonly SeriesReading[]): number | null {
   const tref = well.referenceTemperatureC;
   if (tref === null || history.length === 0 || well.kind !== 'production') return null;
   const { originMs } = timeOriginOf(well, history[0].timeMs);
