@@ -224,6 +224,20 @@ describe('listReadings', () => {
     expect(inputError(() => f.s.listReadings({ well: 'W-1', from: iso(START_MS + WEEK_MS), to: iso(START_MS) })).where.field).toBe('to');
   });
 
+  it('gives only the newest `latest` readings of the range, in time order, with the total of the range', () => {
+    const ids = [0, 1, 2, 3, 4].map((k) => log({ productionTemperature: 150 - k }, START_MS + k * WEEK_MS).reading.id);
+    f.s.deleteReading({ id: ids[3], reason: 'test' });
+    const newest = f.s.listReadings({ well: 'W-1', latest: 2 });
+    expect(newest.readings.map((r) => r.id)).toEqual([ids[2], ids[4]]);
+    expect(newest.total).toBe(4);
+    expect(f.s.listReadings({ well: 'W-1', latest: 2, includeDeleted: true }).readings.map((r) => r.id)).toEqual([ids[3], ids[4]]);
+    expect(f.s.listReadings({ well: 'W-1', latest: 2, includeDeleted: true }).total).toBe(5);
+    expect(f.s.listReadings({ well: 'W-1', latest: 10, to: iso(START_MS + WEEK_MS) })).toMatchObject({ total: 2 });
+    expect(f.s.listReadings({ well: 'W-1', latest: 10, to: iso(START_MS + WEEK_MS) }).readings.map((r) => r.id)).toEqual([ids[0], ids[1]]);
+    expect(f.s.listReadings({ well: 'W-1' }).total).toBe(4);
+    expect(inputError(() => f.s.listReadings({ well: 'W-1', latest: 0 })).where.field).toBe('latest');
+  });
+
   it('shows each reading in the contract shape: UTC instant, °C, kg/s, MPa, nulls for absent values', () => {
     const r = log({ flow: 45, flowUnit: 'kg/s', note: 'weekly round', flags: ['spike'] }).reading;
     expect(r).toEqual({

@@ -24,6 +24,27 @@ export function readingServices(ctx: ServiceContext) {
   const anyInRange = db.prepare<[number, number, number], { id: number }>(
     'SELECT id FROM readings WHERE well_id = ? AND time_ms BETWEEN ? AND ? ORDER BY time_ms, id',
   );
+  // The newest `latest` of the range, newest first (reversed below), and the count of the range.
+  const newestAny = db.prepare<[number, number, number, number], { id: number }>(
+    'SELECT id FROM readings WHERE well_id = ? AND time_ms BETWEEN ? AND ? ORDER BY time_ms DESC, id DESC LIMIT ?',
+  );
+  const newestLive = db.prepare<[number, number, number, number], { id: number }>(
+    'SELECT id FROM readings WHERE well_id = ? AND time_ms BETWEEN ? AND ? AND deleted_ms IS NULL ORDER BY time_ms DESC LIMIT ?',
+  );
+  const countAny = db.prepare<[number, number, number], number>('SELECT count(*) FROM readings WHERE well_id = ? AND time_ms BETWEEN ? AND ?').pluck(true);
+  const countLive = db.prepare<[number, number, number], number>(
+    'SELECT count(*) FROM readings WHERE well_id = ? AND time_ms BETWEEN ? AND ? AND deleted_ms IS NULL',
+  ).pluck(true);
+  const listRange = db.transaction((well: Well, fromMs: number, toMs: number, includeDeleted: boolean, latest: number | undefined) => {
+    const byId = (r: { id: number }): Reading => ctx.readings.get(r.id) as Reading;
+    const total = (includeDeleted ? countAny : countLive).get(well.id, fromMs, toMs) as number;
+    if (latest !== undefined) {
+      const rows = (includeDeleted ? newestAny : newestLive).all(well.id, fromMs, toMs, latest).reverse().map(byId);
+      return { rows, total };
+    }
+    const rows = includeDeleted ? anyInRange.all(well.id, fromMs, toMs).map(byId) : ctx.readings.listLive(well.id, { fromMs, toMs });
+    return { rows, total };
+  });
 
   const wellOf = (r: Reading): Well => ctx.wells.get(r.wellId) as Well;
 
@@ -101,10 +122,8 @@ export function readingServices(ctx: ServiceContext) {
       const fromMs = req.from === undefined ? Number.MIN_SAFE_INTEGER : instantMs(req.from);
       const toMs = req.to === undefined ? Number.MAX_SAFE_INTEGER : instantMs(req.to);
       if (fromMs > toMs) throw new InputError(`the window ends (${req.to}) before it starts (${req.from})`, { field: 'to' });
-      const rows = req.includeDeleted === true
-        ? anyInRange.all(well.id, fromMs, toMs).map((r) => ctx.readings.get(r.id) as Reading)
-        : ctx.readings.listLive(well.id, { fromMs, toMs });
-      return { well: wellInfo(ctx, well), readings: rows.map((r) => readingJson(r, well.name)) };
+      const { rows, total } = listRange(well, fromMs, toMs, req.includeDeleted === true, req.latest);
+      return { well: wellInfo(ctx, well), readings: rows.map((r) => readingJson(r, well.name)), total };
     },
 
     auditLog(request: AuditRequest = {}): AuditResponse {

@@ -84,29 +84,30 @@ function wellLog(fieldInfo: FieldWithWells, well: Wire<WellSummary>, app: AppCon
 
   const refresh = async (): Promise<void> => {
     const [list, readingAudit, wellAudit] = await Promise.all([
-      app.client.listReadings({ well: well.name, field: fieldInfo.name }),
+      // The newest ones only: a well can hold a million readings, and the book shows a page at a time.
+      app.client.listReadings({ well: well.name, field: fieldInfo.name, latest: shownReadings }),
       app.client.auditLog({ entity: 'reading', limit: AUDIT_FETCH }),
       app.client.auditLog({ entity: 'well', entityId: well.id }),
     ]);
     if (mine !== generation) return;
     const readings = [...list.readings].sort((a, b) => Date.parse(b.time) - Date.parse(a.time));
-    drawReadings(readings);
+    drawReadings(readings, list.total);
     drawAudit([...readingAudit.entries, ...wellAudit.entries]);
   };
 
-  const drawReadings = (readings: Wire<ReadingJson>[]): void => {
+  const drawReadings = (readings: Wire<ReadingJson>[], total: number): void => {
     if (readings.length === 0) {
       replace(readingsBox, notice('info', `${well.name} has no readings yet.`));
       return;
     }
     const tbody = h('tbody');
     for (const r of readings.slice(0, shownReadings)) tbody.append(...readingRows(r, ref, zone, display, app, refresh));
-    const more = readings.length > shownReadings
-      ? h('button', { type: 'button', onclick: () => { shownReadings += PAGE; drawReadings(readings); } }, `Show ${Math.min(PAGE, readings.length - shownReadings)} more`)
+    const more = total > shownReadings
+      ? h('button', { type: 'button', onclick: () => { shownReadings += PAGE; void refresh(); } }, `Show ${Math.min(PAGE, total - shownReadings)} more`)
       : null;
     replace(readingsBox,
       h('div', { class: 'table-scroll' }, h('table', { class: 'data-table readings' },
-        h('caption', {}, `${Math.min(shownReadings, readings.length)} of ${readings.length} readings, newest first; times in ${display.timeZone}`),
+        h('caption', {}, `${Math.min(shownReadings, readings.length).toLocaleString('en-US')} of ${total.toLocaleString('en-US')} readings, newest first; times in ${display.timeZone}`),
         h('thead', {}, h('tr', {}, ['Time', `Production temperature`, 'Injection temperature', 'Flow', 'Pressure', 'Status', 'Note', 'Source', 'Change']
           .map((label, i) => h('th', { scope: 'col', class: i >= 1 && i <= 4 ? 'num' : null }, label)))),
         tbody)),

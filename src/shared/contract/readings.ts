@@ -111,11 +111,18 @@ export interface ListReadingsRequest extends WellRef {
   from?: string;
   to?: string;
   includeDeleted?: boolean;
+  /**
+   * Only the newest this many readings of the range (still in time order): a log book shows the
+   * recent ones, and a well of a million readings need not send them all. Default: every one.
+   */
+  latest?: number;
 }
 
 export interface ListReadingsResponse {
   well: WellInfo;
   readings: ReadingJson[];
+  /** Readings in the range, those left out by `latest` included. */
+  total: number;
 }
 
 export interface AuditRequest {
@@ -195,6 +202,7 @@ export const LIST_READINGS_REQUEST: Schema<ListReadingsRequest> = object({
   from: optional(instant()),
   to: optional(instant()),
   includeDeleted: optional(boolean()),
+  latest: optional(number({ integer: true, min: 1, max: 100_000 })),
 });
 
 export const AUDIT_REQUEST: Schema<AuditRequest> = object({
