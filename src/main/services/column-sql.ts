@@ -10,6 +10,7 @@
  *   type SeriesColumn = 'time' | 'temperature';  interface ColumnJob { column; wellId; includeDeleted }
  *   NOT_PLAIN, PLAIN, SPECIAL: SQL conditions and marker
  *   columnSql(column, includeDeleted): string      one value a row, to be read with pluck
+ *   fillTemperatures(values, out, marks)           the temperature column's values into NaN-for-none doubles and marks
  */
 export type SeriesColumn = 'time' | 'temperature';
 
@@ -33,4 +34,18 @@ export function seriesOrder(includeDeleted: boolean): string {
 export function columnSql(column: SeriesColumn, includeDeleted: boolean): string {
   const expression = column === 'time' ? 'time_ms' : `CASE WHEN ${PLAIN} THEN production_temperature_c ELSE '${NOT_PLAIN}' END`;
   return `SELECT ${expression} FROM readings WHERE ${seriesOrder(includeDeleted)}`;
+}
+
+/**
+ * The plucked temperature column into `out` (NaN where a reading has no temperature or is not plain)
+ * and `marks` (1 where it is not plain), over the first out.length values.
+ */
+export function fillTemperatures(values: readonly (number | string | null)[], out: Float64Array, marks: Uint8Array): void {
+  for (let i = 0; i < out.length; i++) {
+    const v = values[i];
+    if (v === NOT_PLAIN) {
+      out[i] = NaN;
+      marks[i] = 1;
+    } else out[i] = v === null ? NaN : (v as number);
+  }
 }

@@ -14,7 +14,7 @@
  */
 import Database from 'better-sqlite3';
 import { parentPort, workerData } from 'node:worker_threads';
-import { NOT_PLAIN, columnSql, type ColumnJob } from './column-sql.js';
+import { columnSql, fillTemperatures, type ColumnJob } from './column-sql.js';
 
 const DONE = 1;
 const FAILED = 2;
@@ -45,14 +45,7 @@ if (port !== null) {
         } else {
           const count = job.buffer.byteLength / 9;
           const out = new Float64Array(job.buffer, 0, Math.min(n, count));
-          const marks = new Uint8Array(job.buffer, 8 * count, out.length);
-          for (let i = 0; i < out.length; i++) {
-            const v = values[i];
-            if (v === NOT_PLAIN) {
-              out[i] = NaN;
-              marks[i] = 1;
-            } else out[i] = v === null ? NaN : (v as number);
-          }
+          fillTemperatures(values, out, new Uint8Array(job.buffer, 8 * count, out.length));
         }
         state[1] = n;
         Atomics.store(state, 0, DONE);

@@ -32,7 +32,7 @@ import { ProducedMassCounter, exclusionOf, isFlaggedOut } from '../../shared/ser
 import type { Well } from '../db/wells.js';
 import type { ServiceContext } from './context.js';
 import type { ColumnReader } from './column-reader.js';
-import { NOT_PLAIN, SPECIAL, columnSql, seriesOrder } from './column-sql.js';
+import { SPECIAL, columnSql, fillTemperatures, seriesOrder } from './column-sql.js';
 import { timeOriginOf } from './fits.js';
 import { wellInfo } from './views.js';
 
@@ -209,13 +209,7 @@ class ColumnsDisagree extends Error {}
 function temperatureColumn(values: (number | string | null)[], n: number): { values: Float64Array; marks: Uint8Array } {
   const out = new Float64Array(values.length);
   const marks = new Uint8Array(values.length);
-  for (let i = 0; i < values.length; i++) {
-    const v = values[i];
-    if (v === NOT_PLAIN) {
-      out[i] = NaN;
-      marks[i] = 1;
-    } else out[i] = v === null ? NaN : (v as number);
-  }
+  fillTemperatures(values, out, marks);
   if (values.length !== n) throw new ColumnsDisagree(`wellSeries: ${values.length} temperatures for ${n} instants`);
   return { values: out, marks };
 }

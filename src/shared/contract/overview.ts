@@ -115,15 +115,19 @@ export interface WellSeriesRequest extends WellRef {
  */
 export const EXCLUSION_CODES = { included: 0, 'not-producing': 1, flagged: 2, 'no-temperature': 3, 'before-time-zero': 4, deleted: 5 } as const;
 
-export interface WellSeriesResponse {
+/** What wellSeries and chartSeries both give besides the columns. */
+export interface SeriesHead {
   well: WellInfo;
   basis: Basis;
   /** Time zero (production start, else the first live reading); null for a well without readings. */
   timeOrigin: string | null;
   referenceTemperatureC: number | null;
   count: number;
-  /** Epoch of `timeS`, ms since 1970-01-01 UTC (the first reading's instant). */
+  /** The first reading's instant, ms since 1970-01-01 UTC: the epoch of wellSeries's `timeS`. */
   epochMs: number;
+}
+
+export interface WellSeriesResponse extends SeriesHead {
   /** Seconds after epochMs of each reading, ascending. */
   timeS: number[];
   /** Basis value of each reading: s after time zero, or kg produced since time zero; null before time zero. */
@@ -153,14 +157,7 @@ export interface PackedSeriesColumns {
   x: string | null;
 }
 
-export interface ChartSeriesResponse {
-  well: WellInfo;
-  basis: Basis;
-  timeOrigin: string | null;
-  referenceTemperatureC: number | null;
-  count: number;
-  /** The first reading's instant (as wellSeries's epochMs). */
-  epochMs: number;
+export interface ChartSeriesResponse extends SeriesHead {
   columns: PackedSeriesColumns;
 }
 
