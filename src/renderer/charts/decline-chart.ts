@@ -101,7 +101,9 @@ export class DeclineCharts {
         residualPanelPlugin('yResidual'),
         fastPointsPlugin([
           { index: EXCLUDED, scale: 'y', kind: 'cross', size: 3 },
-          { index: RESIDUALS, scale: 'yResidual', kind: 'square', size: decimating ? 1.6 : 3 },
+          // Decimated residuals are drawn as a line through each pixel's lowest and highest (their
+          // envelope); marks at those extremes alone would read as two bands of residuals.
+          ...(decimating ? [] : [{ index: RESIDUALS, scale: 'yResidual', kind: 'square' as const, size: 3 }]),
         ]),
         noReplayPlugin,
         this.markPlugin(),
@@ -183,9 +185,9 @@ export class DeclineCharts {
       line(overlay.fitLabel, overlay.fit, COLOURS.fit, { borderWidth: 2.5, order: 0 }),
       line(overlay.limit?.label ?? 'economic limit', overlay.limit === null ? [] : [{ x: x0, y: overlay.limit.y }, { x: x1, y: overlay.limit.y }], COLOURS.limit, { borderDash: [2, 3], order: 2 }),
       line(overlay.theoryLabel, overlay.theory, COLOURS.theory, { borderDash: [9, 3, 2, 3], order: 2 }),
-      line('residual (observed − fitted)', overlay.residuals, COLOURS.residual, {
-        yAxisID: 'yResidual', showLine: false, pointRadius: 0, pointHoverRadius: 3, borderWidth: 0, order: 5,
-      }),
+      line('residual (observed − fitted)', overlay.residuals, COLOURS.residual, decimating
+        ? { yAxisID: 'yResidual', borderWidth: 0.75, pointHoverRadius: 3, order: 5 }
+        : { yAxisID: 'yResidual', showLine: false, pointRadius: 0, pointHoverRadius: 3, borderWidth: 0, order: 5 }),
     ];
   }
 
