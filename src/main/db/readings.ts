@@ -17,7 +17,7 @@
  *     get(id): Reading | undefined                            live or deleted
  *     findLive(wellId, timeMs): Reading | undefined
  *     listLive(wellId, range?: { fromMs?; toMs? }): Reading[] time order; both bounds inclusive
- *     listSeriesLive(wellId, toMs?): SeriesReading[]          the same, with only what a fit reads (a million readings in a second)
+ *     listSeriesLive(wellId, toMs?): SeriesReading[]          the same, with only what a fit reads (a fraction of listLive's cost)
  *     edit(id, changes: ReadingChanges, by: ChangedBy): Reading   no write (and no audit row) when nothing changes
  *     softDelete(id, by: ChangedBy): Reading
  * Inserting joins the caller's transaction, so an import can wrap thousands of inserts in one.
@@ -27,6 +27,7 @@ import { InputError } from '../../shared/errors.js';
 import { AuditLog } from './audit.js';
 import { isConstraintError, isoTime, optionalNumber, optionalText, requireId, requireInstantMs, requireText } from './checks.js';
 import type { FieldDb } from './database.js';
+import { PLAIN, SPECIAL } from './series-columns.js';
 import type { ReadingStatus, ReadingValues } from '../../shared/contract/reading-rules.js';
 import type { SeriesReading } from '../../shared/series/well-series.js';
 
@@ -160,14 +161,14 @@ export class ReadingRepository {
     // production, through their partial index (migration 0004), in the same order.
     this.seriesRange = db.prepare<[number, number], SeriesRow>(
       `SELECT id, time_ms, production_temperature_c, normalised_mass_flow_kg_s,
-              CASE WHEN status = 'producing' AND flags = '' THEN 0 ELSE 1 END
+              CASE WHEN ${PLAIN} THEN 0 ELSE 1 END
          FROM readings
         WHERE well_id = ? AND time_ms <= ? AND deleted_ms IS NULL
         ORDER BY time_ms`,
     ).raw(true);
     this.seriesSpecial = db.prepare<[number, number], [ReadingStatus, string]>(
       `SELECT status, flags FROM readings INDEXED BY readings_special
-        WHERE well_id = ? AND time_ms <= ? AND deleted_ms IS NULL AND (status <> 'producing' OR flags <> '' OR deleted_ms IS NOT NULL)
+        WHERE well_id = ? AND time_ms <= ? AND deleted_ms IS NULL AND ${SPECIAL}
         ORDER BY time_ms, id`,
     ).raw(true);
 

@@ -22,7 +22,7 @@
  */
 import { Worker } from 'node:worker_threads';
 import type { FieldDb } from '../db/database.js';
-import type { SeriesColumn } from './column-sql.js';
+import type { SeriesColumn } from '../db/series-columns.js';
 
 /** Below this a second thread costs more than it saves. */
 export const PARALLEL_MIN_READINGS = 50_000;
@@ -81,7 +81,7 @@ export class ColumnReader {
   }
 
   /**
-   * Starts reading `column` of the well's `count` readings (in the order of column-sql.ts); the
+   * Starts reading `column` of the well's `count` readings (in the order of db/series-columns.ts); the
    * returned function waits for it. Null when no thread can take the job.
    */
   start(column: SeriesColumn, wellId: number, includeDeleted: boolean, count: number): (() => ColumnValues | null) | null {

@@ -69,8 +69,7 @@ function selectReadings(
   if (history.length === 0) throw new InputError(`${well.name} has no readings${windowToMs === null ? '' : ` up to ${isoOf(windowToMs)}`}`, { field: 'well' });
   const { originMs, originSource } = timeOriginOf(well, history[0].timeMs);
   // The window's readings (the series's own, buildWellSeries in src/shared/series/well-series.ts).
-  const from = windowFromMs ?? -Infinity;
-  const inWindow = windowFromMs === null && windowToMs === null ? history : history.filter((r) => r.timeMs >= from);
+  const inWindow = windowFromMs === null ? history : history.filter((r) => r.timeMs >= windowFromMs);
   if (inWindow.length === 0) {
     throw new InputError(`${well.name} has no readings from ${windowFromMs === null ? 'the start' : isoOf(windowFromMs)} to ${windowToMs === null ? 'the end' : isoOf(windowToMs)}`, { field: 'from' });
   }

@@ -39,7 +39,7 @@ export interface CreateServicesOptions extends ServiceOptions {
   stagingDir?: string;
   /**
    * Read long series with two reader threads (services/column-reader.ts): for the long-running front ends (the
-   * loopback server, the desktop shell); a command that runs once does not need the second thread.
+   * loopback server, the desktop shell); a command that runs once does not need the threads.
    */
   parallelReads?: boolean;
 }
@@ -51,7 +51,7 @@ export function createServices(fdb: FieldDb, options: CreateServicesOptions = {}
   const { close: closeImports, importing, ...importApi } = createImportApi(fdb, options);
   const fits = fitServices(ctx);
   const forecasts = forecastServices(ctx, fits);
-  const timeReader = options.parallelReads === true ? new ColumnReader(fdb, options.nativeBinding) : null;
+  const columnReader = options.parallelReads === true ? new ColumnReader(fdb, options.nativeBinding) : null;
   const services: TauwellServices = {
     ...wellServices(ctx),
     ...readingServices(ctx),
@@ -66,7 +66,7 @@ export function createServices(fdb: FieldDb, options: CreateServicesOptions = {}
     },
     ...settingsServices(ctx),
     fieldOverview: overviewServices(ctx, fits, forecasts).fieldOverview,
-    ...wellSeriesServices(ctx, timeReader),
+    ...wellSeriesServices(ctx, columnReader),
     ...importApi,
     makeReport: async (request) => {
       const req = validate(REQUEST_SCHEMAS.makeReport, request) as MakeReportRequest;
@@ -94,7 +94,7 @@ export function createServices(fdb: FieldDb, options: CreateServicesOptions = {}
   // A write on this connection while an import job holds the write lock is refused in plain words.
   const guarded = guardBusyWrites(services, importing);
   closers.set(guarded, async () => {
-    await timeReader?.close();
+    await columnReader?.close();
     await closeImports();
   });
   return guarded;

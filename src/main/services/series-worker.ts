@@ -14,7 +14,7 @@
  */
 import Database from 'better-sqlite3';
 import { parentPort, workerData } from 'node:worker_threads';
-import { columnSql, fillTemperatures, type ColumnJob } from './column-sql.js';
+import { columnSql, fillTemperatures, type ColumnJob } from '../db/series-columns.js';
 
 const DONE = 1;
 const FAILED = 2;

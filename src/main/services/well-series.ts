@@ -29,10 +29,10 @@ import { isoOf, validate } from '../../shared/contract/schema.js';
 import { InputError } from '../../shared/errors.js';
 import type { Basis } from '../../shared/fit/types.js';
 import { ProducedMassCounter, exclusionOf, isFlaggedOut } from '../../shared/series/well-series.js';
+import { SPECIAL, columnSql, fillTemperatures, seriesOrder } from '../db/series-columns.js';
 import type { Well } from '../db/wells.js';
 import type { ServiceContext } from './context.js';
 import type { ColumnReader } from './column-reader.js';
-import { SPECIAL, columnSql, fillTemperatures, seriesOrder } from './column-sql.js';
 import { timeOriginOf } from './fits.js';
 import { wellInfo } from './views.js';
 
@@ -55,13 +55,13 @@ interface Columns {
   ids: Float64Array | null;
 }
 
-/** id, status, flags, deleted_ms, production_temperature_c of a reading that is not plain. */
-type SpecialRow = [number, ReadingStatus, string, number | null, number | null];
+/** status, flags, deleted_ms, production_temperature_c of a reading that is not plain. */
+type SpecialRow = [ReadingStatus, string, number | null, number | null];
 
 /** `threads`: the reader threads of the instants and temperatures (column-reader.ts), or null to read every column here. */
 export function wellSeriesServices(ctx: ServiceContext, threads: ColumnReader | null = null) {
   const db = ctx.fdb.db;
-  // Each column is read on its own as bare values (`pluck`), in the same order (column-sql.ts): the
+  // Each column is read on its own as bare values (`pluck`), in the same order (db/series-columns.ts): the
   // live queries walk the partial index (well_id, time_ms) WHERE deleted_ms IS NULL.
   const column = (sql: string) => db.prepare<[number], number | string | null>(sql).pluck(true);
   const columns = [false, true].map((includeDeleted) => ({
@@ -70,7 +70,7 @@ export function wellSeriesServices(ctx: ServiceContext, threads: ColumnReader | 
     flow: column(`SELECT normalised_mass_flow_kg_s FROM readings WHERE ${seriesOrder(includeDeleted)}`),
     id: column(`SELECT id FROM readings WHERE ${seriesOrder(includeDeleted)}`),
     special: db.prepare<[number], SpecialRow>(
-      `SELECT id, status, flags, deleted_ms, production_temperature_c FROM readings INDEXED BY readings_special
+      `SELECT status, flags, deleted_ms, production_temperature_c FROM readings INDEXED BY readings_special
        WHERE well_id = ? ${includeDeleted ? '' : 'AND deleted_ms IS NULL '}AND ${SPECIAL} ORDER BY time_ms, id`,
     ).raw(true),
   }));
@@ -102,8 +102,9 @@ export function wellSeriesServices(ctx: ServiceContext, threads: ColumnReader | 
     const temperaturesFromThread = waitForTemperatures?.() ?? null;
     const timeMs = timesFromThread?.values ?? Float64Array.from(q.time.all(well.id) as number[]);
     const n = timeMs.length;
-    const fromThread = temperaturesFromThread === null ? null : { values: temperaturesFromThread.values, marks: temperaturesFromThread.marks as Uint8Array };
-    const { values: temperatureC, marks } = fromThread ?? temperatureColumn(q.temperature.all(well.id), n);
+    const { values: temperatureC, marks } = temperaturesFromThread === null
+      ? temperatureColumn(q.temperature.all(well.id), n)
+      : { values: temperaturesFromThread.values, marks: temperaturesFromThread.marks as Uint8Array };
     const x = new Float64Array(n);
     const exclusion = new Uint8Array(n);
     const pending: number[] = [];
@@ -119,10 +120,10 @@ export function wellSeriesServices(ctx: ServiceContext, threads: ColumnReader | 
         // The next reading that is not plain, in the same order.
         const row = specials[k++];
         if (row === undefined) throw new ColumnsDisagree(`wellSeries: ${well.name} has more readings marked as not plain than ${specials.length}`);
-        status = row[1];
-        flaggedOut = row[2] !== '' && isFlaggedOut(row[2].split(','));
-        deleted = row[3] !== null;
-        temperature = row[4];
+        status = row[0];
+        flaggedOut = row[1] !== '' && isFlaggedOut(row[1].split(','));
+        deleted = row[2] !== null;
+        temperature = row[3];
         temperatureC[i] = temperature ?? NaN;
       } else if (Number.isNaN(temperature)) temperature = null;
       let counted = false;

@@ -24,7 +24,7 @@ import { field, h, notice, replace, select } from '../app/dom.js';
 import { routeTo } from '../app/router.js';
 import { DeclineCharts } from '../charts/decline-chart.js';
 import { decodeChartSeries, type DecodedSeries } from '../charts/packed-series.js';
-import { latestIncluded, massUnit, yMap, type SeriesColumns, type XAxis, type YMap, type YQuantity } from '../charts/decline-data.js';
+import { latestIncluded, massUnit, yMap, type XAxis, type YMap, type YQuantity } from '../charts/decline-data.js';
 import type { WindowMs } from '../charts/decline-model.js';
 import { buildOverlay, EMPTY_OVERLAY, MODEL_WORDS, readingsView, type OverlayView } from '../charts/decline-overlay.js';
 import { chartRangeOfWindow, isoOfMs, readingMs, windowDates, windowOfChartRange, windowOfDates } from '../charts/decline-window.js';
@@ -256,7 +256,7 @@ class DeclineView {
     const series = this.current();
     if (series === undefined || this.charts === null) return;
     const axis = this.axis();
-    const { view, datasets: d } = readingsView(series as SeriesColumns, axis, this.yMap(), this.display);
+    const { view, datasets: d } = readingsView(series, axis, this.yMap(), this.display);
     this.charts.setReadings(view, this.overlay(), this.windowRange());
     this.recordCounts = { included: d.includedCount, excluded: d.excludedCount };
     this.renderFacts();
@@ -270,7 +270,7 @@ class DeclineView {
     const series = this.current();
     const fit = this.fit;
     if (series === undefined || fit === null || fit.basis !== this.choices.basis) return EMPTY_OVERLAY;
-    return buildOverlay({ series: series as SeriesColumns, axis: this.axis(), map: this.yMap(), display: this.display, fit, forecast: this.forecast, limit: this.limit() });
+    return buildOverlay({ series: series, axis: this.axis(), map: this.yMap(), display: this.display, fit, forecast: this.forecast, limit: this.limit() });
   }
 
   private drawOverlay(): void {
@@ -287,7 +287,7 @@ class DeclineView {
     const w = this.choices.window;
     const series = this.current();
     if ((w.fromMs === null && w.toMs === null) || series === undefined) return null;
-    return chartRangeOfWindow(series as SeriesColumns, this.axis(), w);
+    return chartRangeOfWindow(series, this.axis(), w);
   }
 
   private showWindowInputs(): void {
@@ -317,7 +317,7 @@ class DeclineView {
   private windowFromDrag(a: number, b: number): void {
     const series = this.current();
     if (series === undefined) return;
-    const w = windowOfChartRange(series as SeriesColumns, this.axis(), a, b);
+    const w = windowOfChartRange(series, this.axis(), a, b);
     this.setChooseMode(false);
     if (w === null) {
       this.app.tell('warn', 'No reading lies in the span you dragged; the fit window is unchanged.');
@@ -490,8 +490,8 @@ class DeclineView {
 
   private renderFacts(): void {
     const series = this.current();
-    const i = series === undefined ? -1 : latestIncluded(series as SeriesColumns);
-    const now = series === undefined || i < 0 ? null : { ms: readingMs(series as SeriesColumns, i), celsius: series.productionTemperatureC[i] as number };
+    const i = series === undefined ? -1 : latestIncluded(series);
+    const now = series === undefined || i < 0 ? null : { ms: readingMs(series, i), celsius: series.productionTemperatureC[i] as number };
     replace(this.factsBox, factCards(facts({
       display: this.display,
       trefC: series?.referenceTemperatureC ?? this.well.referenceTemperatureC,

@@ -1,6 +1,7 @@
 /**
- * The column queries of a well's series, shared by services/well-series.ts and its reader threads
- * (series-worker.ts), so both read the same values in the same order.
+ * The column queries of a well's series, shared by services/well-series.ts, its reader threads
+ * (services/series-worker.ts) and ReadingRepository.listSeriesLive, so all read the same values in
+ * the same order and agree on which readings are plain.
  *
  * A plain reading is producing, without flags and live; the others (shut-in or test, flagged,
  * deleted: a few in a hundred) hold NOT_PLAIN in the temperature column and are read with their
