@@ -85,31 +85,25 @@ export function readingMs(series: SeriesColumns, i: number): number {
   return series.epochMs + 1000 * series.timeS[i];
 }
 
-/** First index whose key is ≥ value (keys non-decreasing; null keys sort first); n when none. */
-function lowerBound(n: number, key: (i: number) => number | null, value: number): number {
+/**
+ * First index whose key is ≥ value, or > value when `after` (keys non-decreasing; null keys sort
+ * first); n when none.
+ */
+function firstIndex(n: number, key: (i: number) => number | null, value: number, after: boolean): number {
   let lo = 0;
   let hi = n;
   while (lo < hi) {
     const mid = (lo + hi) >>> 1;
     const k = key(mid);
-    if (k === null || k < value) lo = mid + 1;
+    if (k === null || k < value || (after && k === value)) lo = mid + 1;
     else hi = mid;
   }
   return lo;
 }
 
+const lowerBound = (n: number, key: (i: number) => number | null, value: number): number => firstIndex(n, key, value, false);
 /** Last index whose key is ≤ value; -1 when none. */
-function upperIndex(n: number, key: (i: number) => number | null, value: number): number {
-  let lo = 0;
-  let hi = n;
-  while (lo < hi) {
-    const mid = (lo + hi) >>> 1;
-    const k = key(mid);
-    if (k === null || k <= value) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo - 1;
-}
+const upperIndex = (n: number, key: (i: number) => number | null, value: number): number => firstIndex(n, key, value, true) - 1;
 
 /**
  * The window a drag from chart x `a` to `b` chooses (either order). Time axis: those instants,
